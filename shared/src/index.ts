@@ -1,1 +1,2 @@
 export * from './errors.ts';
+export * from './color.ts';
