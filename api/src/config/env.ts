@@ -1,0 +1,59 @@
+import { z } from 'zod';
+
+const bool = z.enum(['0', '1', 'true', 'false']).transform((v) => v === '1' || v === 'true');
+
+/** Everything the API reads from the environment, checked once at start. */
+export const EnvSchema = z.object({
+  NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
+  PORT: z.coerce.number().int().min(0).max(65535).default(4100),
+  HOST: z.string().default('127.0.0.1'),
+  /** Public origin the browser uses, e.g. http://127.0.0.1:4100 (links in e-mails, OAuth callback). */
+  PUBLIC_URL: z.url().default('http://127.0.0.1:4100'),
+  DATABASE_URL: z.string().min(1, 'DATABASE_URL is required (npm start sets it)'),
+  SESSION_SECRET: z.string().min(16).default('development-only-session-secret-change-me'),
+  /** Start the local fakes (OAuth provider, SMTP) inside this process. Never in production. */
+  FAKES: bool.default(true),
+  FAKE_OAUTH_PORT: z.coerce.number().int().min(0).max(65535).default(4101),
+  FAKE_SMTP_PORT: z.coerce.number().int().min(0).max(65535).default(2526),
+  GITHUB_CLIENT_ID: z.string().default('midgray-local'),
+  GITHUB_CLIENT_SECRET: z.string().default('midgray-local-secret'),
+  /** OAuth endpoints; default to the local fake provider. */
+  OAUTH_AUTHORIZATION_URL: z.url().optional(),
+  OAUTH_TOKEN_URL: z.url().optional(),
+  OAUTH_USER_PROFILE_URL: z.url().optional(),
+  OAUTH_USER_EMAIL_URL: z.url().optional(),
+  SMTP_HOST: z.string().default('127.0.0.1'),
+  SMTP_PORT: z.coerce.number().int().optional(),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASS: z.string().optional(),
+  SMTP_SECURE: bool.default(false),
+  MAIL_FROM: z.string().default('Midgray <no-reply@midgray.localhost>'),
+  /** Folder the local SMTP fake writes captured messages to. */
+  MAILBOX_DIR: z.string().default('.data/mailbox'),
+  /** Folder for uploaded footage (outside the web root). */
+  STORAGE_DIR: z.string().default('.data/storage'),
+  WEB_DIST: z.string().default('web/dist'),
+  TRUST_PROXY: bool.default(false),
+});
+export type Env = z.infer<typeof EnvSchema>;
+
+/** Parses `source` (default process.env) and fills derived OAuth URLs; exits with a readable list on error. */
+export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
+  const parsed = EnvSchema.safeParse(source);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`);
+    throw new Error(`Configuration error:\n${lines.join('\n')}`);
+  }
+  const env = parsed.data;
+  if (env.NODE_ENV === 'production' && env.FAKES) throw new Error('FAKES must be off in production');
+  if (env.NODE_ENV === 'production' && env.SESSION_SECRET.startsWith('development-only')) {
+    throw new Error('Set SESSION_SECRET in production');
+  }
+  const fake = `http://127.0.0.1:${env.FAKE_OAUTH_PORT}`;
+  env.OAUTH_AUTHORIZATION_URL ??= `${fake}/login/oauth/authorize`;
+  env.OAUTH_TOKEN_URL ??= `${fake}/login/oauth/access_token`;
+  env.OAUTH_USER_PROFILE_URL ??= `${fake}/user`;
+  env.OAUTH_USER_EMAIL_URL ??= `${fake}/user/emails`;
+  env.SMTP_PORT ??= env.FAKE_SMTP_PORT;
+  return env;
+}

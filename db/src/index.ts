@@ -1,0 +1,38 @@
+import { Sequelize, type Options } from 'sequelize';
+import { Activity } from './models/activity.ts';
+import { Channel } from './models/channel.ts';
+import { Episode, EpisodeGear } from './models/episode.ts';
+import { Gear } from './models/gear.ts';
+import { Invitation } from './models/invitation.ts';
+import { Membership } from './models/membership.ts';
+import { User } from './models/user.ts';
+
+export { Activity, Channel, Episode, EpisodeGear, Gear, Invitation, Membership, User };
+export { createMigrator, migrateUp, type MigrationFn } from './migrator.ts';
+
+/** Registers every model and association on `sequelize` (idempotent per instance). */
+export function initModels(sequelize: Sequelize) {
+  for (const m of [User, Channel, Membership, Invitation, Gear, Episode, EpisodeGear, Activity]) m.initModel(sequelize);
+  Membership.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  Membership.belongsTo(Channel, { foreignKey: 'channelId', as: 'channel' });
+  Channel.hasMany(Membership, { foreignKey: 'channelId', as: 'memberships' });
+  User.hasMany(Membership, { foreignKey: 'userId', as: 'memberships' });
+  Episode.belongsToMany(Gear, { through: EpisodeGear, foreignKey: 'episodeId', otherKey: 'gearId', as: 'gear' });
+  Gear.belongsToMany(Episode, { through: EpisodeGear, foreignKey: 'gearId', otherKey: 'episodeId', as: 'episodes' });
+  Episode.belongsTo(User, { foreignKey: 'hostId', as: 'host' });
+  Episode.belongsTo(User, { foreignKey: 'editorId', as: 'editor' });
+  Activity.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
+}
+
+/** Returns a Sequelize instance for `url` with every model registered. Times are UTC instants. */
+export function createDatabase(url: string, options: Options = {}) {
+  const sequelize = new Sequelize(url, {
+    dialect: 'postgres',
+    logging: false,
+    timezone: '+00:00',
+    pool: { max: 10, min: 0, idle: 10_000 },
+    ...options,
+  });
+  initModels(sequelize);
+  return sequelize;
+}
