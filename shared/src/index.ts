@@ -3,3 +3,7 @@ export * from './api/errors.ts';
 export * from './schemas/common.ts';
 export * from './schemas/channels.ts';
 export * from './color.ts';
+export * from './schemas/description.ts';
+export * from './description.ts';
+export * from './stages.ts';
+export * from './zones.ts';
