@@ -7,3 +7,7 @@ export * from './schemas/description.ts';
 export * from './description.ts';
 export * from './stages.ts';
 export * from './zones.ts';
+export * from './exposure.ts';
+export * from './timecode.ts';
+export * from './spec-sheet.ts';
+export * from './schemas/plans.ts';
