@@ -565,6 +565,7 @@ describe('parseChapters', () => {
 
   it('does not take a number glued to text for a time', () => {
     expect(parseChapters('12:30ISO sweep').chapters).toEqual([]);
+    expect(parseChapters('1:02:03:04 Too many parts').errors).toHaveLength(1);
   });
 
   it('reads back the chapters section the composer writes', () => {
