@@ -89,6 +89,7 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): { app: Expres
   // Uploads (tus) mount here, before any body parser: they stream the raw request body.
 
   app.use('/api', express.json({ limit: JSON_BODY_LIMIT, strict: true, type: ['application/json', 'application/*+json'] }));
+  app.use('/api', csrfProtection);
   app.use('/api', (req, _res, next) => {
     // Writes must be JSON: a cross-site form post (urlencoded, multipart, text/plain) is refused outright.
     if (['POST', 'PATCH', 'PUT', 'DELETE'].includes(req.method) && req.headers['content-length'] && req.headers['content-length'] !== '0' && !req.is(['application/json', 'application/*+json'])) {
@@ -96,13 +97,11 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): { app: Expres
     }
     next();
   });
-  app.use('/api', csrfProtection);
 
-  const routes = new ApiRoutes();
+  const routes = new ApiRoutes(sequelize);
   registerHealthRoutes(routes, { sequelize, version: API_VERSION });
   registerAuthRoutes(routes, { passport, sequelize, generateCsrfToken: (req) => generateToken(req), signInLimiter: limiter(opts.signInPerMinute ?? 30, 60_000, 'sign-in attempts') });
   registerChannelRoutes(routes, {
-    sequelize,
     channels: new ChannelsService(sequelize, mailer, env.PUBLIC_URL),
     inviteLimiter: limiter(opts.invitesPerHour ?? 60, 3_600_000, 'invitations'),
   });

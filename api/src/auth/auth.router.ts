@@ -2,7 +2,7 @@ import type { RequestHandler } from 'express';
 import type { createPassport } from './passport.ts';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { ChannelSettingsSchema, type Me } from '@midgray/shared';
-import { currentUser, requireUser } from '../middleware/auth.ts';
+import { currentUser } from '../middleware/auth.ts';
 import type { ApiRoutes } from '../routing.ts';
 import { SESSION_COOKIE } from './session.ts';
 
@@ -10,16 +10,15 @@ import { SESSION_COOKIE } from './session.ts';
 export function registerAuthRoutes(routes: ApiRoutes, deps: { passport: ReturnType<typeof createPassport>; sequelize: Sequelize; generateCsrfToken: (req: any) => string; signInLimiter: RequestHandler }) {
   const { passport, sequelize } = deps;
 
-  routes.get('/auth/github', 'public', deps.signInLimiter, passport.authenticate('github', { scope: ['user:email'] }));
+  routes.get('/auth/github', { access: 'public', before: [deps.signInLimiter] }, passport.authenticate('github', { scope: ['user:email'] }));
   routes.get(
     '/auth/github/callback',
-    'public',
-    deps.signInLimiter,
+    { access: 'public', before: [deps.signInLimiter] },
     passport.authenticate('github', { failureRedirect: '/sign-in?error=provider' }),
     (_req, res) => res.redirect('/'),
   );
 
-  routes.post('/auth/logout', 'user', requireUser, (req, res, next) => {
+  routes.post('/auth/logout', { access: 'user' }, (req, res, next) => {
     req.logout((err) => {
       if (err) return next(err);
       req.session.destroy((err2) => {
@@ -30,7 +29,7 @@ export function registerAuthRoutes(routes: ApiRoutes, deps: { passport: ReturnTy
     });
   });
 
-  routes.get('/auth/me', 'user', requireUser, async (req, res) => {
+  routes.get('/auth/me', { access: 'user' }, async (req, res) => {
     const user = currentUser(req);
     const rows = await sequelize.query<{ id: string; name: string; time_zone: string; settings: unknown; version: number; role: Me['channels'][number]['role'] }>(
       `SELECT c.id, c.name, c.time_zone, c.settings, c.version, m.role
@@ -46,7 +45,7 @@ export function registerAuthRoutes(routes: ApiRoutes, deps: { passport: ReturnTy
   });
 
   // Anyone may fetch a token (the sign-in page needs none, but every write does).
-  routes.get('/auth/csrf', 'public', (req, res) => {
+  routes.get('/auth/csrf', { access: 'public' }, (req, res) => {
     res.json({ token: deps.generateCsrfToken(req) });
   });
 }

@@ -4,7 +4,7 @@
 //   POST /login/oauth/access_token (form or JSON) → { access_token, token_type, scope }
 //   GET  /user, GET /user/emails   (Authorization: token|Bearer <access_token>)
 // Tests add accounts with POST /_fake/accounts.
-import { randomBytes } from 'node:crypto';
+import { randomBytes, randomInt } from 'node:crypto';
 import type { Server } from 'node:http';
 import express from 'express';
 import { DEMO_PEOPLE } from '@midgray/db/demo/people';
@@ -24,7 +24,8 @@ export function createFakeOAuthApp(opts: { clientId: string; clientSecret: strin
   for (const p of DEMO_PEOPLE) accounts.set(p.providerId, { id: p.providerId, login: p.login, name: p.name, email: p.email });
   const codes = new Map<string, { accountId: string; redirectUri: string; expires: number }>();
   const tokens = new Map<string, string>();
-  let nextId = 920000;
+  // New accounts get random ids so several fakes (parallel test files) never hand out the same one.
+  const newId = () => String(randomInt(100_000_000, 999_999_999));
 
   const app = express();
   app.disable('x-powered-by');
@@ -67,7 +68,7 @@ label{display:block;margin:.5rem 0 .2rem}input{width:100%;box-sizing:border-box;
     let account = b.account ? accounts.get(b.account) : undefined;
     if (!account && b.name && b.email) {
       const existing = [...accounts.values()].find((a) => a.email.toLowerCase() === b.email.toLowerCase());
-      account = existing ?? { id: String(nextId++), login: b.email.split('@')[0], name: b.name.slice(0, 80), email: b.email.slice(0, 254) };
+      account = existing ?? { id: newId(), login: b.email.split('@')[0], name: b.name.slice(0, 80), email: b.email.slice(0, 254) };
       accounts.set(account.id, account);
     }
     if (!account || !b.redirect_uri) {
@@ -113,7 +114,7 @@ label{display:block;margin:.5rem 0 .2rem}input{width:100%;box-sizing:border-box;
   app.post('/_fake/accounts', (req, res) => {
     const b = req.body as Partial<FakeAccount>;
     if (!b.name || !b.email) return void res.status(400).json({ message: 'name and email required' });
-    const a: FakeAccount = { id: b.id ?? String(nextId++), login: b.login ?? b.email.split('@')[0], name: b.name, email: b.email };
+    const a: FakeAccount = { id: b.id ?? newId(), login: b.login ?? b.email.split('@')[0], name: b.name, email: b.email };
     accounts.set(a.id, a);
     res.status(201).json(a);
   });

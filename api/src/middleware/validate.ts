@@ -22,14 +22,11 @@ export interface ValidatedInput<P = any, Q = any, B = any> {
 export function validate(schemas: Schemas): RequestHandler {
   return (req, res, next) => {
     const fieldErrors: Record<string, string[]> = {};
-    const out: Record<string, unknown> = {};
+    const out: Record<string, unknown> = { params: {}, query: {}, body: {}, ...(res.locals.input ?? {}) };
     for (const part of ['params', 'query', 'body'] as const) {
       const schema = schemas[part];
       const raw = part === 'body' ? (req.body ?? {}) : req[part];
-      if (!schema) {
-        out[part] = {};
-        continue;
-      }
+      if (!schema) continue;
       const r = schema.safeParse(raw);
       if (r.success) out[part] = r.data;
       else {

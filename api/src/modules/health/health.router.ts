@@ -3,7 +3,7 @@ import type { ApiRoutes } from '../../routing.ts';
 
 /** GET /api/health: 200 when PostgreSQL answers, 503 when it does not. */
 export function registerHealthRoutes(routes: ApiRoutes, deps: { sequelize: Sequelize; version: string }) {
-  routes.get('/health', 'public', async (_req, res) => {
+  routes.get('/health', { access: 'public' }, async (_req, res) => {
     const started = performance.now();
     try {
       await deps.sequelize.query('SELECT 1');

@@ -1,0 +1,67 @@
+// The expected status of every API route per caller. Bodies for writes are chosen so that a
+// caller who passes the access check gets a harmless, predictable answer (usually 400 from
+// validation), never a change other rows depend on.
+import type { Role } from '@midgray/shared';
+import type { Client, TestContext } from './helpers.ts';
+
+export type Caller = 'anon' | 'outsider' | Role;
+
+export interface MatrixFixture {
+  ctx: TestContext;
+  channelId: string;
+  hostMemberId: string;
+  invitationId: string;
+  team: Record<Role, Client>;
+  /** Ids made by rows' setup functions. */
+  [key: string]: unknown;
+}
+
+export interface MatrixRow {
+  expect: Record<Caller, number>;
+  params?: (fx: MatrixFixture) => Record<string, string>;
+  body?: (fx: MatrixFixture) => unknown;
+  setup?: (fx: MatrixFixture) => Promise<void>;
+}
+
+/** Expected statuses when only members with `allowed` roles pass; the others get 403. */
+export function only(allowed: readonly Role[], ok: number, extra: Partial<Record<Caller, number>> = {}): Record<Caller, number> {
+  const r = (role: Role) => (allowed.includes(role) ? ok : 403);
+  return { anon: 401, outsider: 404, host: r('host'), editor: r('editor'), producer: r('producer'), admin: r('admin'), ...extra };
+}
+const everyone = (ok: number) => only(['host', 'editor', 'producer', 'admin'], ok);
+const INVALID = { unknownField: true };
+const NIL = '00000000-0000-4000-8000-000000000000';
+
+export const MATRIX: Record<string, MatrixRow> = {
+  'GET /api/health': { expect: { anon: 200, outsider: 200, host: 200, editor: 200, producer: 200, admin: 200 } },
+  'GET /api/auth/github': { expect: { anon: 302, outsider: 302, host: 302, editor: 302, producer: 302, admin: 302 } },
+  // Without a code the provider strategy restarts the flow (302 to the provider).
+  'GET /api/auth/github/callback': { expect: { anon: 302, outsider: 302, host: 302, editor: 302, producer: 302, admin: 302 } },
+  'GET /api/auth/me': { expect: { anon: 401, outsider: 200, host: 200, editor: 200, producer: 200, admin: 200 } },
+  'GET /api/auth/csrf': { expect: { anon: 200, outsider: 200, host: 200, editor: 200, producer: 200, admin: 200 } },
+  // A write without a session has no CSRF token: 403 before anything else. The matrix runs
+  // this row last, since it really signs each caller out.
+  'POST /api/auth/logout': { expect: { anon: 403, outsider: 204, host: 204, editor: 204, producer: 204, admin: 204 } },
+  'POST /api/channels': { expect: { anon: 403, outsider: 400, host: 400, editor: 400, producer: 400, admin: 400 }, body: () => INVALID },
+  'GET /api/channels/:channelId': { expect: everyone(200) },
+  'PATCH /api/channels/:channelId': { expect: only(['admin'], 400, { anon: 403 }), body: () => INVALID },
+  'GET /api/channels/:channelId/members': { expect: everyone(200) },
+  'PATCH /api/channels/:channelId/members/:memberId': {
+    expect: only(['admin'], 400, { anon: 403 }),
+    params: (fx) => ({ channelId: fx.channelId, memberId: fx.hostMemberId }),
+    body: () => ({ role: 'janitor' }),
+  },
+  'DELETE /api/channels/:channelId/members/:memberId': {
+    // An admin reaches the service, which answers 404 for an id that is not a member.
+    expect: only(['admin'], 404, { anon: 403 }),
+    params: (fx) => ({ channelId: fx.channelId, memberId: NIL }),
+  },
+  'GET /api/channels/:channelId/invitations': { expect: only(['admin'], 200) },
+  'POST /api/channels/:channelId/invitations': { expect: only(['admin'], 400, { anon: 403 }), body: () => ({ email: 'not-an-address', role: 'editor' }) },
+  'DELETE /api/channels/:channelId/invitations/:invitationId': {
+    expect: only(['admin'], 404, { anon: 403 }),
+    params: (fx) => ({ channelId: fx.channelId, invitationId: NIL }),
+  },
+  'GET /api/dev/mailbox': { expect: { anon: 200, outsider: 200, host: 200, editor: 200, producer: 200, admin: 200 } },
+  'GET /api/dev/mailbox/:id/html': { expect: { anon: 404, outsider: 404, host: 404, editor: 404, producer: 404, admin: 404 }, params: () => ({ id: 'nope' }) },
+};

@@ -1,0 +1,24 @@
+import { createBrowserRouter, Navigate } from 'react-router-dom';
+import { SignInPage } from '../features/auth/components/sign-in-page.tsx';
+import { ComingPage } from './placeholder.tsx';
+import { RouteError } from './route-error.tsx';
+import { Shell } from './shell.tsx';
+
+// Pages load lazily so the first page stays small; each feature owns its page component.
+export const router = createBrowserRouter([
+  { path: '/sign-in', element: <SignInPage /> },
+  { path: '/mailbox', lazy: async () => ({ Component: (await import('../features/mailbox/components/mailbox-page.tsx')).MailboxPage }) },
+  {
+    path: '/',
+    element: <Shell />,
+    errorElement: <RouteError />,
+    children: [
+      { index: true, element: <Navigate to="/board" replace /> },
+      { path: 'board', element: <ComingPage title="Board" what="The episode board arrives with the board feature." /> },
+      { path: 'gear', element: <ComingPage title="Gear" what="The gear list arrives with the board feature." /> },
+      { path: 'calendar', element: <ComingPage title="Calendar" what="The calendar arrives with the publishing feature." /> },
+      { path: 'team', lazy: async () => ({ Component: (await import('../features/team/components/team-page.tsx')).TeamPage }) },
+      { path: '*', element: <RouteError /> },
+    ],
+  },
+]);

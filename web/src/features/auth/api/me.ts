@@ -1,0 +1,30 @@
+import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { Me } from '@midgray/shared';
+import { api, ApiError } from '../../../lib/api-client.ts';
+
+/** Fetches the signed-in user and their channels; null when nobody is signed in. */
+export async function getMe(): Promise<Me | null> {
+  try {
+    return await api<Me>('GET', '/api/auth/me');
+  } catch (err) {
+    if (err instanceof ApiError && err.status === 401) return null;
+    throw err;
+  }
+}
+
+export const meQueryOptions = () => queryOptions({ queryKey: ['auth', 'me'], queryFn: getMe, staleTime: 60_000 });
+
+/** The signed-in user (null when signed out). */
+export const useMe = () => useQuery(meQueryOptions());
+
+/** Signs out, then forgets every cached query. */
+export function useSignOut() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: () => api<void>('POST', '/api/auth/logout'),
+    onSettled: () => {
+      qc.clear();
+      window.location.assign('/sign-in');
+    },
+  });
+}
