@@ -31,10 +31,16 @@ export const DEFAULT_CONTROL_PRIORITY: readonly ExposureControl[] = ['nd', 'aper
 
 const says = (mustBe: string) => (issue: { input?: unknown }) => `${mustBe} ${gotText(issue.input)}.`;
 
-function boundedNumber(mustBe: string, min: number, max: number, minInclusive: boolean) {
+/**
+ * A number field whose every failure reads "<mustBe> (got …)." — except a value above `max`,
+ * which reads "<what> must be at most <max> (got …)." so the person sees the limit they hit.
+ */
+function boundedNumber(mustBe: string, min: number, max: number, minInclusive: boolean, tooBig?: string) {
   const error = says(mustBe);
   const base = z.number({ error });
-  return (minInclusive ? base.min(min, { error }) : base.gt(min, { error })).max(max, { error });
+  return (minInclusive ? base.min(min, { error }) : base.gt(min, { error })).max(max, {
+    error: tooBig ? says(tooBig) : error,
+  });
 }
 
 const IsoValueSchema = (what: string) =>
@@ -85,10 +91,11 @@ export const BaseExposureSchema = z.object({
   fNumber: FNumberSchema('Base aperture'),
   shutter: ShutterSettingSchema,
   fps: boundedNumber(
-    `Frame rate must be a positive number of frames per second, at most ${PLAN_FPS_MAX}`,
+    'Frame rate must be a positive number of frames per second',
     0,
     PLAN_FPS_MAX,
     false,
+    `Frame rate must be at most ${PLAN_FPS_MAX} frames per second`,
   ),
   ndDensity: DensitySchema('Base ND density').default(0),
 });
