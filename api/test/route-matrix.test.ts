@@ -47,7 +47,7 @@ describe('the route matrix', () => {
           res = body === undefined ? await t : await t.send(body);
         } else {
           const c = callers[caller];
-          const fn = { GET: c.get, POST: c.post, PATCH: c.patch, PUT: c.put, DELETE: c.delete }[method as 'GET']!;
+          const fn = { GET: c.get, POST: c.post, PATCH: c.patch, PUT: c.put, DELETE: c.delete }[method as 'POST']!;
           res = await fn(path, body as never);
         }
         expect(res.status, `${key} as ${caller}: ${JSON.stringify(res.body).slice(0, 200)}`).toBe(expected);

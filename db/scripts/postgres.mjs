@@ -148,8 +148,9 @@ function postgresIds() {
 
 // CLI: node db/scripts/postgres.mjs start|stop [dev|test]
 if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
-  const [cmd = 'start', which = 'dev'] = process.argv.slice(2);
-  const cfg = which === 'test' ? { name: 'pg-test', port: 54339, database: 'midgray_test', fast: true } : { name: 'pg', port: 54329, database: 'midgray' };
+  // node db/scripts/postgres.mjs start test my_db  → ensures database my_db in the test cluster, prints its URL
+  const [cmd = 'start', which = 'dev', database] = process.argv.slice(2);
+  const cfg = which === 'test' ? { name: 'pg-test', port: 54339, database: database ?? 'midgray_test', fast: true } : { name: 'pg', port: 54329, database: database ?? 'midgray' };
   if (cmd === 'stop') stopPostgres(cfg.name);
   else console.log(ensurePostgres(cfg).url);
 }

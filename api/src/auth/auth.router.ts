@@ -29,7 +29,12 @@ export function registerAuthRoutes(routes: ApiRoutes, deps: { passport: ReturnTy
     });
   });
 
-  routes.get('/auth/me', { access: 'user' }, async (req, res) => {
+  // Public: answers { user: null } when nobody is signed in, so the app can tell without an error.
+  routes.get('/auth/me', { access: 'public' }, async (req, res) => {
+    if (!req.user) {
+      res.json({ user: null, channels: [] } satisfies Me);
+      return;
+    }
     const user = currentUser(req);
     const rows = await sequelize.query<{ id: string; name: string; time_zone: string; settings: unknown; version: number; role: Me['channels'][number]['role'] }>(
       `SELECT c.id, c.name, c.time_zone, c.settings, c.version, m.role

@@ -72,13 +72,15 @@ export type CreateInvitationInput = z.infer<typeof CreateInvitationInputSchema>;
 export const InvitationParamsSchema = z.strictObject({ channelId: UuidSchema, invitationId: UuidSchema });
 
 export const MeSchema = z.object({
-  user: z.object({
-    id: UuidSchema,
-    name: z.string(),
-    login: z.string(),
-    email: z.string().nullable(),
-    avatarUrl: z.string().nullable(),
-  }),
+  user: z
+    .object({
+      id: UuidSchema,
+      name: z.string(),
+      login: z.string(),
+      email: z.string().nullable(),
+      avatarUrl: z.string().nullable(),
+    })
+    .nullable(),
   channels: z.array(ChannelSchema),
 });
 export type Me = z.infer<typeof MeSchema>;

@@ -1,5 +1,6 @@
 import { createContext, useContext, useEffect, useMemo, useState, type ReactNode } from 'react';
-import type { Channel, Me } from '@midgray/shared';
+import type { Channel } from '@midgray/shared';
+import type { SignedIn as Me } from '../auth/api/me.ts';
 
 const STORAGE_KEY = 'midgray.channel';
 

@@ -1,15 +1,14 @@
 import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { Me } from '@midgray/shared';
-import { api, ApiError } from '../../../lib/api-client.ts';
+import { api } from '../../../lib/api-client.ts';
+
+/** The signed-in user with their channels. */
+export type SignedIn = Me & { user: NonNullable<Me['user']> };
 
 /** Fetches the signed-in user and their channels; null when nobody is signed in. */
-export async function getMe(): Promise<Me | null> {
-  try {
-    return await api<Me>('GET', '/api/auth/me');
-  } catch (err) {
-    if (err instanceof ApiError && err.status === 401) return null;
-    throw err;
-  }
+export async function getMe(): Promise<SignedIn | null> {
+  const me = await api<Me>('GET', '/api/auth/me');
+  return me.user ? (me as SignedIn) : null;
 }
 
 export const meQueryOptions = () => queryOptions({ queryKey: ['auth', 'me'], queryFn: getMe, staleTime: 60_000 });

@@ -1,0 +1,26 @@
+import { lazy, type ComponentType, type LazyExoticComponent } from 'react';
+
+/** What every tab of the episode page receives. */
+export interface EpisodeTabProps {
+  episodeId: string;
+  channelId: string;
+}
+
+/** A tab of the episode page; each feature owns its tab component (loaded lazily). */
+export interface EpisodeTab {
+  key: 'plan' | 'footage' | 'readouts' | 'description' | 'schedule';
+  label: string;
+  Component: LazyExoticComponent<ComponentType<EpisodeTabProps>> | null;
+}
+
+// The app composes features here; a feature adds its line when its tab exists. `null` = not built yet.
+export const EPISODE_TABS: EpisodeTab[] = [
+  { key: 'plan', label: 'Plan', Component: null },
+  { key: 'footage', label: 'Footage', Component: null },
+  { key: 'readouts', label: 'Readouts', Component: null },
+  { key: 'description', label: 'Description', Component: null },
+  { key: 'schedule', label: 'Schedule', Component: null },
+];
+
+/** Helper for a tab module that default-exports its component. */
+export const lazyTab = (load: () => Promise<{ default: ComponentType<EpisodeTabProps> }>) => lazy(load);
