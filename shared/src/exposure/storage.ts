@@ -11,7 +11,8 @@ const LINK_MUST_BE = 'Link speed must be a positive number of megabits per secon
 export function bytesForBitrate(megabitsPerSecond: number, seconds: number): number {
   requirePositive(megabitsPerSecond, 'megabitsPerSecond', BITRATE_MUST_BE);
   requireNonNegative(seconds, 'seconds', 'Duration must be a number of seconds at or above 0');
-  return Math.ceil((megabitsPerSecond * 1e6 * seconds) / 8 - 1e-6);
+  // Round up to whole bytes; the small allowance keeps float noise (750000000.0000001) from adding one.
+  return Math.max(0, Math.ceil((megabitsPerSecond * 1e6 * seconds) / 8 - 1e-6));
 }
 
 /** Returns the seconds needed to move `bytes` over a link of the given megabits per second. */
