@@ -5,9 +5,11 @@ import { Episode, EpisodeGear } from './models/episode.ts';
 import { Gear } from './models/gear.ts';
 import { Invitation } from './models/invitation.ts';
 import { Membership } from './models/membership.ts';
+import { LightingCircuit, LightingFixture, SpecSheetLine, Test, TestStep } from './models/test.ts';
 import { User } from './models/user.ts';
 
 export { Activity, Channel, Episode, EpisodeGear, Gear, Invitation, Membership, User };
+export { LightingCircuit, LightingFixture, SpecSheetLine, Test, TestStep, type ReadoutRegion } from './models/test.ts';
 export { createMigrator, migrateUp, type MigrationFn } from './migrator.ts';
 
 /** Registers every model and association on `sequelize` (idempotent per instance). */
@@ -22,6 +24,17 @@ export function initModels(sequelize: Sequelize) {
   Episode.belongsTo(User, { foreignKey: 'hostId', as: 'host' });
   Episode.belongsTo(User, { foreignKey: 'editorId', as: 'editor' });
   Activity.belongsTo(User, { foreignKey: 'actorId', as: 'actor' });
+  for (const m of [Test, TestStep, SpecSheetLine, LightingCircuit, LightingFixture]) m.initModel(sequelize);
+  Test.belongsTo(Episode, { foreignKey: 'episodeId', as: 'episode' });
+  Episode.hasMany(Test, { foreignKey: 'episodeId', as: 'tests' });
+  Test.hasMany(TestStep, { foreignKey: 'testId', as: 'steps' });
+  TestStep.belongsTo(Test, { foreignKey: 'testId', as: 'test' });
+  TestStep.belongsTo(User, { foreignKey: 'shotById', as: 'shotBy' });
+  Test.hasMany(SpecSheetLine, { foreignKey: 'testId', as: 'specLines' });
+  SpecSheetLine.belongsTo(Test, { foreignKey: 'testId', as: 'test' });
+  Test.hasMany(LightingCircuit, { foreignKey: 'testId', as: 'circuits' });
+  Test.hasMany(LightingFixture, { foreignKey: 'testId', as: 'fixtures' });
+  LightingFixture.belongsTo(LightingCircuit, { foreignKey: 'circuitId', as: 'circuit' });
 }
 
 /** Returns a Sequelize instance for `url` with every model registered. Times are UTC instants. */
