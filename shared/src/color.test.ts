@@ -226,6 +226,27 @@ describe('cross-check against colorjs.io (independent reference library), 2000 r
     expect(worst).toBeLessThan(1e-9);
   });
 
+  it('deltaE2000 agrees near opposite hues, where the mean-hue rule switches branch', () => {
+    // Sharma et al. (2005) pairs 9–16 probe this discontinuity; here 1000 more pairs from 0.0001°
+    // to 1° either side of 180° apart, against colorjs.io.
+    const u = seededUniform(180);
+    let worst = 0;
+    for (let i = 0; i < 1000; i++) {
+      const hue1 = u() * 2 * Math.PI;
+      const miss = (u() < 0.5 ? -1 : 1) * Math.pow(10, -4 + 4 * u()) * (Math.PI / 180);
+      const hue2 = hue1 + Math.PI + miss;
+      const chroma1 = 0.5 + u() * 60, chroma2 = 0.5 + u() * 60;
+      const lab1: Vec3 = [20 + u() * 60, chroma1 * Math.cos(hue1), chroma1 * Math.sin(hue1)];
+      const lab2: Vec3 = [20 + u() * 60, chroma2 * Math.cos(hue2), chroma2 * Math.sin(hue2)];
+      const expected = referenceDeltaE2000(
+        { space: Lab, coords: lab1, alpha: 1 },
+        { space: Lab, coords: lab2, alpha: 1 },
+      );
+      worst = Math.max(worst, Math.abs(deltaE2000(lab1, lab2) - expected));
+    }
+    expect(worst).toBeLessThan(1e-9);
+  });
+
   it('rgbToXyz and xyzToLab agree with colorjs.io sRGB → XYZ D65 → Lab D65 to 1e-9', () => {
     const u = seededUniform(61966);
     let worstXyz = 0;
