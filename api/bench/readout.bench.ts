@@ -71,14 +71,22 @@ async function main(): Promise<void> {
     exposureOffsetStops: 2,
     seed: 2,
   });
+  // Measure noise where a host would draw the region: the middle of the L* 50 grey patch.
+  const grey = reference.patches.find((p) => p.row === 3 && p.col === 3)!.rect;
+  const region = {
+    x: grey.x + Math.round(grey.w * 0.2),
+    y: grey.y + Math.round(grey.h * 0.2),
+    w: Math.round(grey.w * 0.6),
+    h: Math.round(grey.h * 0.6),
+  };
   const referencePng = await encodePng(reference.frame);
   const recoveredPng = await encodePng(recovered.frame);
   console.log(`PNG sizes: ${mib(referencePng.length)} and ${mib(recoveredPng.length)}`);
 
   // Warm-up: JIT, look-up tables, libvips caches.
   await decodeOnly(referencePng);
-  noiseReadout(await decodeFrame(referencePng));
-  await recoveryReadout(await decodeFrame(recoveredPng), await decodeFrame(referencePng));
+  noiseReadout(await decodeFrame(referencePng), region);
+  await recoveryReadout(await decodeFrame(recoveredPng), await decodeFrame(referencePng), { region });
 
   const decode1: number[] = [];
   const decodeNoise: number[] = [];
@@ -95,7 +103,7 @@ async function main(): Promise<void> {
       await time(async () => {
         const frame = await decodeFrame(referencePng);
         const start = performance.now();
-        lastNoise = noiseReadout(frame);
+        lastNoise = noiseReadout(frame, region);
         noiseOnly.push(performance.now() - start);
       }),
     );
@@ -104,7 +112,7 @@ async function main(): Promise<void> {
       await time(async () => {
         const [rec, ref] = await Promise.all([decodeFrame(recoveredPng), decodeFrame(referencePng)]);
         const start = performance.now();
-        lastRecovery = await recoveryReadout(rec, ref);
+        lastRecovery = await recoveryReadout(rec, ref, { region });
         recoveryOnly.push(performance.now() - start);
       }),
     );
@@ -126,8 +134,8 @@ async function main(): Promise<void> {
   console.log(`peak RSS ${mib(peakRss)}, peak heap + array buffers ${mib(peakHeap)} (sampled every 5 ms)`);
   console.log('');
   console.log(
-    `sanity: noise SNR ${lastNoise!.snrDb?.toFixed(2)} dB on the centre tenth; recovery mean ΔE00 ${lastRecovery!.meanDeltaE.toFixed(2)}, ` +
-      `p95 ${lastRecovery!.p95DeltaE.toFixed(2)}, max ${lastRecovery!.maxDeltaE.toFixed(2)}, map ${lastRecovery!.mapWidth}×${lastRecovery!.mapHeight}`,
+    `sanity: noise SNR ${lastNoise!.snrDb?.toFixed(2)} dB on the grey patch (${region.w}×${region.h} px); recovery mean ΔE00 ${lastRecovery!.meanDeltaE.toFixed(2)}, ` +
+      `p95 ${lastRecovery!.p95DeltaE.toFixed(2)}, max ${lastRecovery!.maxDeltaE.toFixed(2)}, noise ×${lastRecovery!.noiseRatio?.toFixed(2)}, map ${lastRecovery!.mapWidth}×${lastRecovery!.mapHeight}`,
   );
 }
 

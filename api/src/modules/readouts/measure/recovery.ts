@@ -53,15 +53,18 @@ export interface RecoveryReadout extends Omit<RecoveryMeasurement, 'cells'> {
 }
 
 /**
- * Samples the ΔE loop aims for: about one million. Our choice: the p95 of a million samples has
- * a sampling error far below the 0.01 the UI shows, and at 4K (3840×2160) the stride this gives,
- * 3, keeps the readout within the 2× decode time budget of issue 6 (see api/bench/readout.bench.ts).
+ * Samples the ΔE loop aims for: about half a million. Our choice: the p95 of 500 000 samples
+ * has a sampling error far below the 0.01 the UI shows, and the stride this gives at 4K keeps
+ * decode + readout within the 2× decode-time budget of issue 6 (see api/bench/readout.bench.ts).
  */
-export const RECOVERY_SAMPLE_BUDGET = 1_000_000;
+export const RECOVERY_SAMPLE_BUDGET = 500_000;
 
-/** Default stride: the smallest s with (width/s)·(height/s) ≤ RECOVERY_SAMPLE_BUDGET; 1 up to ~1 MP, 3 at 4K. */
+/**
+ * Default stride: round(√(pixels / RECOVERY_SAMPLE_BUDGET)), at least 1 — every pixel up to about
+ * 1 MP, 2 at 1920×1080 and 4 at 3840×2160 (both 518 400 samples), 8 at 7680×4320.
+ */
 export function defaultRecoveryStride(width: number, height: number): number {
-  return Math.max(1, Math.ceil(Math.sqrt((width * height) / RECOVERY_SAMPLE_BUDGET)));
+  return Math.max(1, Math.round(Math.sqrt((width * height) / RECOVERY_SAMPLE_BUDGET)));
 }
 
 /**
