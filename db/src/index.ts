@@ -7,9 +7,13 @@ import { Invitation } from './models/invitation.ts';
 import { Membership } from './models/membership.ts';
 import { LightingCircuit, LightingFixture, SpecSheetLine, Test, TestStep } from './models/test.ts';
 import { User } from './models/user.ts';
+import { Description, DescriptionVersion } from './models/description.ts';
+import { PublishSlot } from './models/publish-slot.ts';
 
 export { Activity, Channel, Episode, EpisodeGear, Gear, Invitation, Membership, User };
 export { LightingCircuit, LightingFixture, SpecSheetLine, Test, TestStep, type ReadoutRegion } from './models/test.ts';
+export { Description, DescriptionVersion, PublishSlot };
+export type { StoredChapter, StoredGearLink } from './models/description.ts';
 export { createMigrator, migrateUp, type MigrationFn } from './migrator.ts';
 
 /** Registers every model and association on `sequelize` (idempotent per instance). */
@@ -35,6 +39,7 @@ export function initModels(sequelize: Sequelize) {
   Test.hasMany(LightingCircuit, { foreignKey: 'testId', as: 'circuits' });
   Test.hasMany(LightingFixture, { foreignKey: 'testId', as: 'fixtures' });
   LightingFixture.belongsTo(LightingCircuit, { foreignKey: 'circuitId', as: 'circuit' });
+  for (const m of [Description, DescriptionVersion, PublishSlot]) m.initModel(sequelize);
 }
 
 /** Returns a Sequelize instance for `url` with every model registered. Times are UTC instants. */

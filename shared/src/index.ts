@@ -11,3 +11,4 @@ export * from './exposure.ts';
 export * from './timecode.ts';
 export * from './spec-sheet.ts';
 export * from './schemas/plans.ts';
+export * from './schemas/publishing.ts';

@@ -10,7 +10,9 @@ export class User extends Model {
   declare email: string | null;
   declare avatarUrl: string | null;
   declare emailOptOuts: string[];
+  /** SHA-256 (hex) of the calendar-feed secret; the secret itself is never stored. */
   declare calendarToken: string | null;
+  declare calendarTokenCreatedAt: Date | null;
   declare createdAt: Date;
   declare updatedAt: Date;
 
@@ -26,6 +28,7 @@ export class User extends Model {
         avatarUrl: { type: DataTypes.TEXT },
         emailOptOuts: { type: DataTypes.ARRAY(DataTypes.TEXT), allowNull: false, defaultValue: [] },
         calendarToken: { type: DataTypes.TEXT },
+        calendarTokenCreatedAt: { type: DataTypes.DATE },
       },
       { sequelize, tableName: 'users', underscored: true },
     );
