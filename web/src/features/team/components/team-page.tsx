@@ -8,6 +8,7 @@ import { SelectField, TextField } from '../../../components/ui/field.tsx';
 import { ErrorNote, Loading, PageHeader, Panel } from '../../../components/ui/page.tsx';
 import { useToast } from '../../../components/ui/toast.tsx';
 import { useMe } from '../../auth/api/me.ts';
+import { ChannelSettingsPanel } from '../../channels/components/channel-settings-panel.tsx';
 import { useChannel } from '../../channels/current-channel.tsx';
 import { useChangeRole, useInvitations, useInvite, useMembers, useRemoveMember, useRevokeInvitation } from '../api/team.ts';
 
@@ -53,7 +54,7 @@ export function TeamPage() {
                   <p className="truncate text-sm text-ink-muted">{m.email ?? m.login}</p>
                 </div>
                 {isAdmin ? (
-                  <div className="flex items-center gap-2">
+                  <div className="flex w-full items-center justify-end gap-2 sm:w-auto">
                     <label className="sr-only" htmlFor={`role-${m.id}`}>
                       Role of {m.name}
                     </label>
@@ -91,7 +92,7 @@ export function TeamPage() {
             ))}
           </ul>
         </Panel>
-        <div className="flex flex-col gap-5">
+        <div className="flex flex-col gap-5 lg:row-span-2">
           {isAdmin && (
             <Panel title="Invite someone">
               <form
@@ -151,6 +152,7 @@ export function TeamPage() {
             </dl>
           </Panel>
         </div>
+        {isAdmin && <ChannelSettingsPanel channel={channel} />}
       </div>
     </div>
   );
