@@ -12,3 +12,5 @@ export * from './timecode.ts';
 export * from './spec-sheet.ts';
 export * from './schemas/plans.ts';
 export * from './schemas/publishing.ts';
+export * from './schemas/test-plans.ts';
+export * from './test-plan.ts';
