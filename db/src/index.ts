@@ -9,10 +9,12 @@ import { LightingCircuit, LightingFixture, SpecSheetLine, Test, TestStep } from 
 import { User } from './models/user.ts';
 import { Description, DescriptionVersion } from './models/description.ts';
 import { PublishSlot } from './models/publish-slot.ts';
+import { Footage, UploadRecord } from './models/footage.ts';
 
 export { Activity, Channel, Episode, EpisodeGear, Gear, Invitation, Membership, User };
 export { LightingCircuit, LightingFixture, SpecSheetLine, Test, TestStep, type ReadoutRegion } from './models/test.ts';
 export { Description, DescriptionVersion, PublishSlot };
+export { Footage, UploadRecord, type FootageKind, type FootageStatus } from './models/footage.ts';
 export type { StoredChapter, StoredGearLink } from './models/description.ts';
 export { createMigrator, migrateUp, type MigrationFn } from './migrator.ts';
 
@@ -40,6 +42,9 @@ export function initModels(sequelize: Sequelize) {
   Test.hasMany(LightingFixture, { foreignKey: 'testId', as: 'fixtures' });
   LightingFixture.belongsTo(LightingCircuit, { foreignKey: 'circuitId', as: 'circuit' });
   for (const m of [Description, DescriptionVersion, PublishSlot]) m.initModel(sequelize);
+  for (const m of [Footage, UploadRecord]) m.initModel(sequelize);
+  Footage.belongsTo(User, { foreignKey: 'uploaderId', as: 'uploader' });
+  Footage.belongsTo(User, { foreignKey: 'heldById', as: 'holder' });
 }
 
 /** Returns a Sequelize instance for `url` with every model registered. Times are UTC instants. */
