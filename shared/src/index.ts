@@ -14,3 +14,7 @@ export * from './schemas/plans.ts';
 export * from './schemas/publishing.ts';
 export * from './schemas/test-plans.ts';
 export * from './test-plan.ts';
+export * from './weeks.ts';
+export * from './board-dates.ts';
+export * from './schemas/gear.ts';
+export * from './schemas/episodes.ts';
