@@ -15,6 +15,9 @@ import {
   type Frame,
 } from '../src/modules/readouts/measure/index.ts';
 
+// No libvips operation cache: every decode in the timings really decodes.
+sharp.cache(false);
+
 const WIDTH = 3840;
 const HEIGHT = 2160;
 const RUNS = Math.max(1, Number(process.argv[2] ?? 7));
@@ -82,6 +85,8 @@ async function main(): Promise<void> {
   const referencePng = await encodePng(reference.frame);
   const recoveredPng = await encodePng(recovered.frame);
   console.log(`PNG sizes: ${mib(referencePng.length)} and ${mib(recoveredPng.length)}`);
+  sampleMemory();
+  const setupRss = process.memoryUsage().rss;
 
   // Warm-up: JIT, look-up tables, libvips caches.
   await decodeOnly(referencePng);
@@ -131,7 +136,10 @@ async function main(): Promise<void> {
   console.log(`  sharp decode only            ${ms(d2)}`);
   console.log(`  decode + recovery readout    ${ms(dr)}   (readout alone ${ms(r)}, stride ${lastRecovery!.stride}, ${lastRecovery!.sampleCount} samples)`);
   console.log(`  ratio (decode+readout)/decode ${(dr / d2).toFixed(2)}×   readout/decode ${(r / d2).toFixed(2)}×   target ≤ 2×`);
-  console.log(`peak RSS ${mib(peakRss)}, peak heap + array buffers ${mib(peakHeap)} (sampled every 5 ms)`);
+  console.log(
+    `peak RSS ${mib(peakRss)} (${mib(setupRss)} after building the two test frames and PNGs), ` +
+      `peak heap + array buffers ${mib(peakHeap)} (sampled every 5 ms)`,
+  );
   console.log('');
   console.log(
     `sanity: noise SNR ${lastNoise!.snrDb?.toFixed(2)} dB on the grey patch (${region.w}×${region.h} px); recovery mean ΔE00 ${lastRecovery!.meanDeltaE.toFixed(2)}, ` +

@@ -200,6 +200,9 @@ export function synthChartFrame(options: SynthChartOptions = {}): SyntheticChart
   if (!Number.isInteger(width) || !Number.isInteger(height) || width < 1 || height < 1) {
     throw new InvalidInputError('width and height must be positive integers', 'width');
   }
+  if (!Number.isInteger(cols) || !Number.isInteger(rows) || cols < 1 || rows < 1 || cols * rows > 4096) {
+    throw new InvalidInputError('cols and rows must be positive integers, at most 4096 patches', 'cols');
+  }
   if (!(noiseSigma >= 0) || !(chromaSigma >= 0)) throw new InvalidInputError('noise σ must be ≥ 0', 'noiseSigma');
   if (!Number.isFinite(offset)) throw new InvalidInputError('exposure offset must be finite', 'exposureOffsetStops');
 
