@@ -17,6 +17,8 @@ import { ChannelsService } from './modules/channels/channels.service.ts';
 import { registerChannelRoutes } from './modules/channels/channels.router.ts';
 import { registerMailboxRoutes } from './modules/dev/mailbox.router.ts';
 import { registerHealthRoutes } from './modules/health/health.router.ts';
+import { registerPlanRoutes } from './modules/plans/plans.router.ts';
+import { PlansService } from './modules/plans/plans.service.ts';
 import { ApiRoutes, type RouteInfo } from './routing.ts';
 
 export const API_VERSION = '0.1.0';
@@ -105,6 +107,7 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): { app: Expres
     channels: new ChannelsService(sequelize, mailer, env.PUBLIC_URL),
     inviteLimiter: limiter(opts.invitesPerHour ?? 60, 3_600_000, 'invitations'),
   });
+  registerPlanRoutes(routes, { plans: new PlansService(sequelize) });
   if (env.FAKES) registerMailboxRoutes(routes, { mailboxDir: resolve(env.MAILBOX_DIR) });
 
   app.use('/api', routes.router);

@@ -3,6 +3,7 @@
 // validation), never a change other rows depend on.
 import type { Role } from '@midgray/shared';
 import type { Client, TestContext } from './helpers.ts';
+import { ISO_SWEEP_INPUT, makeEpisode } from './plan-fixtures.ts';
 
 export type Caller = 'anon' | 'outsider' | Role;
 
@@ -31,6 +32,18 @@ export function only(allowed: readonly Role[], ok: number, extra: Partial<Record
 const everyone = (ok: number) => only(['host', 'editor', 'producer', 'admin'], ok);
 const INVALID = { unknownField: true };
 const NIL = '00000000-0000-4000-8000-000000000000';
+
+const PLAN_EDIT = ['host', 'producer', 'admin'] as const;
+/** An episode with one ISO sweep test; its ids go on the fixture for the plan rows. */
+async function setupPlan(fx: MatrixFixture) {
+  const episode = await makeEpisode(fx.channelId, 'Matrix plan episode');
+  const created = await fx.team.host.post(`/api/episodes/${episode.id}/tests`, { kind: 'iso_sweep', name: 'Matrix sweep', inputs: ISO_SWEEP_INPUT });
+  if (created.status !== 201) throw new Error(`matrix plan setup failed: ${created.status} ${JSON.stringify(created.body)}`);
+  fx.planEpisodeId = episode.id;
+  fx.planTestId = created.body.id;
+  fx.planLineId = created.body.specLines[0].id;
+  fx.planStepId = created.body.steps[0].id;
+}
 
 export const MATRIX: Record<string, MatrixRow> = {
   'GET /api/health': { expect: { anon: 200, outsider: 200, host: 200, editor: 200, producer: 200, admin: 200 } },
@@ -64,4 +77,20 @@ export const MATRIX: Record<string, MatrixRow> = {
   },
   'GET /api/dev/mailbox': { expect: { anon: 200, outsider: 200, host: 200, editor: 200, producer: 200, admin: 200 } },
   'GET /api/dev/mailbox/:id/html': { expect: { anon: 404, outsider: 404, host: 404, editor: 404, producer: 404, admin: 404 }, params: () => ({ id: 'nope' }) },
+  // Test plans (issue 4): a test with its lines and steps is made once by the setup below.
+  'GET /api/episodes/:id/tests': { expect: everyone(200), params: (fx) => ({ id: fx.planEpisodeId as string }), setup: setupPlan },
+  'POST /api/episodes/:id/tests': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planEpisodeId as string }), body: () => INVALID },
+  'GET /api/episodes/:id/shot-list.csv': { expect: everyone(200), params: (fx) => ({ id: fx.planEpisodeId as string }) },
+  'GET /api/tests/:id': { expect: everyone(200), params: (fx) => ({ id: fx.planTestId as string }) },
+  'PATCH /api/tests/:id': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planTestId as string }), body: () => INVALID },
+  // Without ?version= an allowed caller gets 400 from validation.
+  'DELETE /api/tests/:id': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planTestId as string }) },
+  'POST /api/tests/:id/regenerate': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planTestId as string }), body: () => INVALID },
+  'PUT /api/tests/:id/lighting': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planTestId as string }), body: () => INVALID },
+  'POST /api/tests/:id/spec-lines': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planTestId as string }), body: () => INVALID },
+  'PATCH /api/spec-lines/:id': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planLineId as string }), body: () => INVALID },
+  'DELETE /api/spec-lines/:id': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planLineId as string }) },
+  'PATCH /api/steps/:id': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planStepId as string }), body: () => INVALID },
+  'POST /api/steps/:id/shot': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planStepId as string }), body: () => INVALID },
+  'DELETE /api/steps/:id/shot': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planStepId as string }) },
 };
