@@ -18,3 +18,6 @@ export * from './weeks.ts';
 export * from './board-dates.ts';
 export * from './schemas/gear.ts';
 export * from './schemas/episodes.ts';
+export * from './schemas/footage.ts';
+export * from './footage-spec.ts';
+export * from './file-names.ts';
