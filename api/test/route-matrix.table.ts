@@ -4,6 +4,7 @@
 import type { Role } from '@midgray/shared';
 import type { Client, TestContext } from './helpers.ts';
 import { ISO_SWEEP_INPUT, makeEpisode } from './plan-fixtures.ts';
+import { daysFromNow, proposedSlot, publishingEpisode } from './publishing-fixtures.ts';
 
 export type Caller = 'anon' | 'outsider' | Role;
 
@@ -44,6 +45,18 @@ async function setupPlan(fx: MatrixFixture) {
   fx.planLineId = created.body.specLines[0].id;
   fx.planStepId = created.body.steps[0].id;
 }
+
+const DECIDE = ['producer', 'admin'] as const;
+/** An episode in Approval with a proposed slot a week ahead; its ids go on the fixture for the publishing rows. */
+async function setupPublishing(fx: MatrixFixture) {
+  const episode = await publishingEpisode(fx.channelId, { title: 'Matrix publishing episode' });
+  const slot = await proposedSlot(episode.id, daysFromNow(7), 'Europe/Berlin');
+  fx.pubEpisodeId = episode.id;
+  fx.pubSlotId = slot.id;
+}
+const pubEpisode = (fx: MatrixFixture) => ({ id: fx.pubEpisodeId as string });
+const pubSlot = (fx: MatrixFixture) => ({ id: fx.pubSlotId as string });
+const signedIn = (ok: number, anon: number) => ({ anon, outsider: ok, host: ok, editor: ok, producer: ok, admin: ok });
 
 export const MATRIX: Record<string, MatrixRow> = {
   'GET /api/health': { expect: { anon: 200, outsider: 200, host: 200, editor: 200, producer: 200, admin: 200 } },
@@ -93,4 +106,25 @@ export const MATRIX: Record<string, MatrixRow> = {
   'PATCH /api/steps/:id': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planStepId as string }), body: () => INVALID },
   'POST /api/steps/:id/shot': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planStepId as string }), body: () => INVALID },
   'DELETE /api/steps/:id/shot': { expect: only(PLAN_EDIT, 400, { anon: 403 }), params: (fx) => ({ id: fx.planStepId as string }) },
+  // Publishing (issue 7): description, slots, approval queue, calendar and feed, profile.
+  'GET /api/episodes/:id/description': { expect: everyone(200), params: pubEpisode, setup: setupPublishing },
+  'PUT /api/episodes/:id/description': { expect: only(['host', 'editor', 'producer', 'admin'], 400, { anon: 403 }), params: pubEpisode, body: () => INVALID },
+  'GET /api/episodes/:id/description/versions': { expect: everyone(200), params: pubEpisode },
+  'POST /api/episodes/:id/description/versions/:versionId/restore': { expect: only(['host', 'editor', 'producer', 'admin'], 400, { anon: 403 }), params: (fx) => ({ id: fx.pubEpisodeId as string, versionId: NIL }), body: () => INVALID },
+  'POST /api/episodes/:id/description/chapters/parse': { expect: only(['host', 'editor', 'producer', 'admin'], 200, { anon: 403 }), params: pubEpisode, body: () => ({ text: '0:00 Intro\n1:30 ISO sweep' }) },
+  'POST /api/episodes/:id/description/preview': { expect: only(['host', 'editor', 'producer', 'admin'], 200, { anon: 403 }), params: pubEpisode, body: () => ({ summary: 'Matrix', chapters: [], gearLinks: [], disclosure: '' }) },
+  'GET /api/episodes/:id/schedule': { expect: everyone(200), params: pubEpisode },
+  'POST /api/episodes/:id/slots': { expect: only(['host', 'editor', 'producer', 'admin'], 400, { anon: 403 }), params: pubEpisode, body: () => INVALID },
+  'POST /api/slots/:id/approve': { expect: only(DECIDE, 400, { anon: 403 }), params: pubSlot, body: () => INVALID },
+  'POST /api/slots/:id/reject': { expect: only(DECIDE, 400, { anon: 403 }), params: pubSlot, body: () => ({}) },
+  'POST /api/episodes/:id/live': { expect: only(DECIDE, 400, { anon: 403 }), params: pubEpisode, body: () => INVALID },
+  'GET /api/channels/:channelId/approvals': { expect: only(DECIDE, 200) },
+  // The query string rides on the path parameter: the matrix has no query of its own.
+  'GET /api/channels/:channelId/calendar': { expect: everyone(200), params: (fx) => ({ channelId: `${fx.channelId}?from=2026-01-01&to=2026-03-31` }) },
+  // Public, the secret is the credential: an unknown token is 404 for everyone.
+  'GET /api/calendar/:token.ics': { expect: { anon: 404, outsider: 404, host: 404, editor: 404, producer: 404, admin: 404 }, params: () => ({ token: 'not-a-feed-token-but-long-enough' }) },
+  'GET /api/me/profile': { expect: signedIn(200, 401) },
+  'PUT /api/me/email-preferences': { expect: signedIn(400, 403), body: () => INVALID },
+  'POST /api/me/calendar-feed': { expect: signedIn(201, 403) },
+  'DELETE /api/me/calendar-feed': { expect: signedIn(204, 403) },
 };

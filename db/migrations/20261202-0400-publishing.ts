@@ -42,7 +42,9 @@ export const up: MigrationFn = async ({ context: qi }) => {
       comment text,
       created_at timestamptz NOT NULL DEFAULT now(),
       updated_at timestamptz NOT NULL DEFAULT now(),
-      CHECK ((status IN ('approved','rejected')) = (decided_at IS NOT NULL))
+      -- A decision has a time; a superseded slot keeps the decision it had (if any).
+      CHECK (status NOT IN ('approved','rejected') OR decided_at IS NOT NULL),
+      CHECK (status <> 'proposed' OR decided_at IS NULL)
     );
     -- At most one live slot (proposed or approved) per episode: a new proposal supersedes it.
     CREATE UNIQUE INDEX publish_slots_current_unique ON publish_slots (episode_id) WHERE status IN ('proposed','approved');
