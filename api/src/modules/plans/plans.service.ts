@@ -382,7 +382,9 @@ export class PlansService {
     for (const d of drafts) {
       const row = matched.get(d);
       if (row) {
-        await row.update({ index: d.index, label: d.label, iso: d.iso, offsetStops: d.offsetStops, planned: d.planned, version: row.version + 1 }, { transaction });
+        // A static update: the instance still holds the index from before the shift, so an
+        // instance update would see "no change" and leave the row at index + 1000000.
+        await TestStep.update({ index: d.index, label: d.label, iso: d.iso, offsetStops: d.offsetStops, planned: d.planned, version: row.version + 1 }, { where: { id: row.id }, transaction });
       } else {
         await TestStep.create({ testId: test.id, index: d.index, label: d.label, iso: d.iso, offsetStops: d.offsetStops, planned: d.planned, plannedSeconds: secondsPerStep }, { transaction });
       }
