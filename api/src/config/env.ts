@@ -33,6 +33,17 @@ export const EnvSchema = z.object({
   /** Folder for uploaded footage (outside the web root). */
   STORAGE_DIR: z.string().default('.data/storage'),
   WEB_DIST: z.string().default('web/dist'),
+  /** Largest footage file accepted, in bytes (default 256 GiB). */
+  UPLOAD_MAX_BYTES: z.coerce.number().int().positive().default(256 * 1024 ** 3),
+  /** Hours after its start an unfinished upload expires and its bytes are removed. */
+  UPLOAD_EXPIRY_HOURS: z.coerce.number().positive().default(72),
+  /** Unfinished uploads one person may have open at once, and their total declared bytes. */
+  UPLOAD_MAX_OPEN_PER_USER: z.coerce.number().int().positive().default(50),
+  UPLOAD_MAX_OPEN_BYTES_PER_USER: z.coerce.number().int().positive().default(4 * 1024 ** 4),
+  /** How often expired uploads are swept (cron, every 15 minutes by default). */
+  UPLOAD_CLEANUP_CRON: z.string().default('*/15 * * * *'),
+  /** Upload locks: 'postgres' (advisory locks, safe with several API processes) or 'memory' (one process only). */
+  UPLOAD_LOCKER: z.enum(['postgres', 'memory']).default('postgres'),
   TRUST_PROXY: bool.default(false),
 });
 export type Env = z.infer<typeof EnvSchema>;
