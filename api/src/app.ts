@@ -15,6 +15,10 @@ import type { Mailer } from './mail/mailer.ts';
 import { apiNotFound, errorHandler } from './middleware/error-handler.ts';
 import { ChannelsService } from './modules/channels/channels.service.ts';
 import { registerChannelRoutes } from './modules/channels/channels.router.ts';
+import { registerEpisodeRoutes } from './modules/episodes/episodes.router.ts';
+import { EpisodesService } from './modules/episodes/episodes.service.ts';
+import { registerGearRoutes } from './modules/gear/gear.router.ts';
+import { GearService } from './modules/gear/gear.service.ts';
 import { registerMailboxRoutes } from './modules/dev/mailbox.router.ts';
 import { registerHealthRoutes } from './modules/health/health.router.ts';
 import { registerPlanRoutes } from './modules/plans/plans.router.ts';
@@ -108,6 +112,8 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): { app: Expres
     channels: new ChannelsService(sequelize, mailer, env.PUBLIC_URL),
     inviteLimiter: limiter(opts.invitesPerHour ?? 60, 3_600_000, 'invitations'),
   });
+  registerEpisodeRoutes(routes, { episodes: new EpisodesService(sequelize) });
+  registerGearRoutes(routes, { gear: new GearService(sequelize) });
   registerPlanRoutes(routes, { plans: new PlansService(sequelize) });
   registerPublishingRoutes(routes, { sequelize, mailer, publicUrl: env.PUBLIC_URL });
   if (env.FAKES) registerMailboxRoutes(routes, { mailboxDir: resolve(env.MAILBOX_DIR) });

@@ -1,6 +1,7 @@
 // The expected status of every API route per caller. Bodies for writes are chosen so that a
 // caller who passes the access check gets a harmless, predictable answer (usually 400 from
 // validation), never a change other rows depend on.
+import { Episode, EpisodeGear, Gear } from '@midgray/db';
 import type { Role } from '@midgray/shared';
 import type { Client, TestContext } from './helpers.ts';
 import { ISO_SWEEP_INPUT, makeEpisode } from './plan-fixtures.ts';
@@ -57,6 +58,19 @@ async function setupPublishing(fx: MatrixFixture) {
 const pubEpisode = (fx: MatrixFixture) => ({ id: fx.pubEpisodeId as string });
 const pubSlot = (fx: MatrixFixture) => ({ id: fx.pubSlotId as string });
 const signedIn = (ok: number, anon: number) => ({ anon, outsider: ok, host: ok, editor: ok, producer: ok, admin: ok });
+
+const EPISODE_WRITE = ['host', 'producer', 'admin'] as const;
+const GEAR_MANAGE = ['producer', 'admin'] as const;
+/** An episode in Plan using one gear item; their ids go on the fixture for the board rows. */
+async function setupBoard(fx: MatrixFixture) {
+  const gear = await Gear.create({ channelId: fx.channelId, kind: 'lens', make: 'Brightwell', model: 'Matrix 35', source: 'owned' });
+  const episode = await Episode.create({ channelId: fx.channelId, title: 'Matrix board episode', stage: 'plan', position: 0 });
+  await EpisodeGear.create({ episodeId: episode.id, gearId: gear.id });
+  fx.boardEpisodeId = episode.id;
+  fx.boardGearId = gear.id;
+}
+const boardEpisode = (fx: MatrixFixture) => ({ id: fx.boardEpisodeId as string });
+const boardGear = (fx: MatrixFixture) => ({ id: fx.boardGearId as string });
 
 export const MATRIX: Record<string, MatrixRow> = {
   'GET /api/health': { expect: { anon: 200, outsider: 200, host: 200, editor: 200, producer: 200, admin: 200 } },
@@ -127,4 +141,19 @@ export const MATRIX: Record<string, MatrixRow> = {
   'PUT /api/me/email-preferences': { expect: signedIn(400, 403), body: () => INVALID },
   'POST /api/me/calendar-feed': { expect: signedIn(201, 403) },
   'DELETE /api/me/calendar-feed': { expect: signedIn(204, 403) },
+  // The board, episodes and gear (issue 3): one episode using one gear item, made by the setup below.
+  'GET /api/channels/:channelId/board': { expect: everyone(200), setup: setupBoard },
+  'POST /api/channels/:channelId/episodes': { expect: only(EPISODE_WRITE, 400, { anon: 403 }), body: () => INVALID },
+  'GET /api/channels/:channelId/episodes/archived': { expect: everyone(200) },
+  'GET /api/episodes/:id': { expect: everyone(200), params: boardEpisode },
+  'PATCH /api/episodes/:id': { expect: only(EPISODE_WRITE, 400, { anon: 403 }), params: boardEpisode, body: () => INVALID },
+  // Every member may ask for a move; the stage rules answer (422) once the body is valid.
+  'POST /api/episodes/:id/move': { expect: { ...everyone(400), anon: 403 }, params: boardEpisode, body: () => INVALID },
+  'POST /api/episodes/:id/archive': { expect: only(EPISODE_WRITE, 400, { anon: 403 }), params: boardEpisode, body: () => INVALID },
+  'POST /api/episodes/:id/unarchive': { expect: only(EPISODE_WRITE, 400, { anon: 403 }), params: boardEpisode, body: () => INVALID },
+  'GET /api/channels/:channelId/gear': { expect: everyone(200) },
+  'POST /api/channels/:channelId/gear': { expect: only(GEAR_MANAGE, 400, { anon: 403 }), body: () => INVALID },
+  'PATCH /api/gear/:id': { expect: only(GEAR_MANAGE, 400, { anon: 403 }), params: boardGear, body: () => INVALID },
+  // The item is used by the setup's episode, so a manager is told to archive it instead (409).
+  'DELETE /api/gear/:id': { expect: only(GEAR_MANAGE, 409, { anon: 403 }), params: boardGear },
 };

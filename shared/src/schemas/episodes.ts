@@ -106,6 +106,8 @@ export const BoardGearSchema = z.object({
   kind: GearKindSchema,
   name: z.string(),
   source: GearSourceSchema,
+  /** Archived gear still named by a card; pickers leave it out. */
+  archived: z.boolean(),
   dueBackOn: z.string().nullable(),
   embargoAt: z.string().nullable(),
   embargoZone: z.string().nullable(),
