@@ -25,7 +25,21 @@ try {
     children.push(spawn(bin('vite'), ['--port', String(VITE_PORT), '--strictPort'], { cwd: join(REPO_ROOT, 'web'), stdio: ['ignore', 'inherit', 'inherit'], env: { ...process.env, API_PORT: String(PORT) } }));
   }
 
-  setTimeout(() => {
+  // Print the banner once the server answers, so the URL works when people read it.
+  const healthUrl = `http://127.0.0.1:${PORT}/api/health`;
+  const waitForHealth = async () => {
+    for (let i = 0; i < 120; i++) {
+      try {
+        if ((await fetch(healthUrl)).ok) return true;
+      } catch {
+        /* not up yet */
+      }
+      await new Promise((r) => setTimeout(r, 500));
+    }
+    return false;
+  };
+  waitForHealth().then((up) => {
+    if (!up) return;
     console.log(`
   Midgray is running at ${PUBLIC_URL}
   Sign in through the local sign-in provider with one of the demo accounts
@@ -38,7 +52,7 @@ try {
   Captured e-mail: ${PUBLIC_URL}/mailbox
   Ctrl-C stops the app and its PostgreSQL.
 `);
-  }, 2500);
+  });
 
   let stopping = false;
   const stop = (code) => {
