@@ -63,8 +63,8 @@ function slotsJsonAgg(t: OptionalTables, episodeIdSql: string): string {
  * (stage order, then position), the gear they name and the channel's people. Returned as text so
  * the API passes it through without parsing and re-serialising 1,000 cards.
  */
-export async function boardJson(sequelize: Sequelize, channelId: string): Promise<string | null> {
-  const t = await optionalTables(sequelize);
+export async function boardJson(sequelize: Sequelize, channelId: string, tables?: OptionalTables): Promise<string | null> {
+  const t = tables ?? (await optionalTables(sequelize));
   const opt = optionalCtes(t);
   const sql = `
     WITH eps AS (
@@ -107,11 +107,11 @@ export async function boardJson(sequelize: Sequelize, channelId: string): Promis
 /**
  * Everything `checkStageMove` needs about one episode, read in the move's transaction in ONE
  * statement (except `now`, which the caller adds). Facts of features whose tables do not exist yet
- * read as absent: no tests, no footage, no description, no slot.
+ * read as absent: no tests, no footage, no description, no slot. `tables` overrides the probe (tests).
  */
-export async function stageFacts(episodeId: string, transaction: Transaction): Promise<Omit<StageFacts, 'now'>> {
+export async function stageFacts(episodeId: string, transaction: Transaction, tables?: OptionalTables): Promise<Omit<StageFacts, 'now'>> {
   const sequelize = dbOf(transaction);
-  const t = await optionalTables(sequelize, transaction);
+  const t = tables ?? (await optionalTables(sequelize, transaction));
   const hasTests = t.has('tests', 'id', 'episode_id', 'name', 'position');
   const hasLines = hasTests && t.has('spec_sheet_lines', 'test_id', 'label', 'value', 'required', 'position');
   const hasFootage = t.has('footage', 'episode_id', 'kind', 'status');

@@ -214,7 +214,8 @@ export class EpisodesService {
       target.splice(index, 0, episodeId);
       columns.set(to, target);
       await writeColumns(columns, transaction);
-      await ep.update({ stage: to, position: index, version: ep.version + 1 }, { transaction });
+      const version = ep.version + 1;
+      await ep.update({ stage: to, position: index, version }, { transaction });
       if (check.direction !== 'same') {
         await recordActivity(
           {
@@ -232,7 +233,7 @@ export class EpisodesService {
           transaction,
         );
       }
-      return { id: episodeId, stage: to, position: index, version: ep.version + 1 };
+      return { id: episodeId, stage: to, position: index, version };
     });
   }
 
