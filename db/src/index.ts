@@ -10,11 +10,13 @@ import { User } from './models/user.ts';
 import { Description, DescriptionVersion } from './models/description.ts';
 import { PublishSlot } from './models/publish-slot.ts';
 import { Footage, UploadRecord } from './models/footage.ts';
+import { Readout } from './models/readout.ts';
 
 export { Activity, Channel, Episode, EpisodeGear, Gear, Invitation, Membership, User };
 export { LightingCircuit, LightingFixture, SpecSheetLine, Test, TestStep, type ReadoutRegion } from './models/test.ts';
 export { Description, DescriptionVersion, PublishSlot };
 export { Footage, UploadRecord, type FootageKind, type FootageStatus } from './models/footage.ts';
+export { Readout, type ReadoutKindValue, type ReadoutStatus } from './models/readout.ts';
 export type { StoredChapter, StoredGearLink } from './models/description.ts';
 export { createMigrator, migrateUp, type MigrationFn } from './migrator.ts';
 
@@ -45,6 +47,8 @@ export function initModels(sequelize: Sequelize) {
   for (const m of [Footage, UploadRecord]) m.initModel(sequelize);
   Footage.belongsTo(User, { foreignKey: 'uploaderId', as: 'uploader' });
   Footage.belongsTo(User, { foreignKey: 'heldById', as: 'holder' });
+  Readout.initModel(sequelize);
+  Readout.belongsTo(User, { foreignKey: 'requestedBy', as: 'requester' });
 }
 
 /** Returns a Sequelize instance for `url` with every model registered. Times are UTC instants. */

@@ -21,3 +21,4 @@ export * from './schemas/episodes.ts';
 export * from './schemas/footage.ts';
 export * from './footage-spec.ts';
 export * from './file-names.ts';
+export * from './schemas/readouts.ts';
