@@ -22,6 +22,8 @@ export interface TestContext {
   sequelize: ReturnType<typeof createDatabase>;
   oauthUrl: string;
   mailboxDir: string;
+  /** The app's mailer (to this context's SMTP fake), for functions other features call directly. */
+  mailer: ReturnType<typeof createMailer>;
   /** Messages captured by this context's SMTP fake, newest first. */
   mails: () => ReturnType<typeof listCapturedMail>;
   close: () => Promise<void>;
@@ -55,6 +57,7 @@ export async function startTestApp(opts: AppOptions & { env?: Record<string, str
     sequelize,
     oauthUrl,
     mailboxDir,
+    mailer,
     mails: () => listCapturedMail(mailboxDir),
     close: async () => {
       await built.close();

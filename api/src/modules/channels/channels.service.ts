@@ -4,6 +4,7 @@ import { ChannelSettingsSchema, type Channel as ChannelDto, type CreateChannelIn
 import { AppError } from '../../errors.ts';
 import { recordActivity } from '../../lib/activity.ts';
 import { layoutMail, type Mailer } from '../../mail/mailer.ts';
+import { invitationsWanted, profileUrl } from '../../mail/notifications.ts';
 
 const INVITATION_DAYS = 14;
 
@@ -146,6 +147,8 @@ export class ChannelsService {
     });
     let mailSent = true;
     try {
+      // A Midgray user who switched invitations off on their profile gets none (issue #7).
+      if (!(await invitationsWanted(this.sequelize, email))) throw new Error(`${email} has switched invitation e-mails off`);
       const body = layoutMail({
         channelName,
         heading: `You are invited to ${channelName}`,
@@ -154,7 +157,7 @@ export class ChannelsService {
           `Sign in with the account that uses ${email} and you join the channel straight away. The invitation is valid for ${INVITATION_DAYS} days.`,
         ],
         action: { label: 'Sign in to Midgray', url: new URL('/sign-in', this.publicUrl).toString() },
-        footer: 'You get this because an admin of the channel entered your address. If you did not expect it, ignore this message.',
+        footer: `You get this because an admin of the channel entered your address. If you did not expect it, ignore this message. Already on Midgray? Switch invitation e-mails off on your profile: ${profileUrl(this.publicUrl)}`,
       });
       await this.mailer.send({ to: email, subject: `Invitation to ${channelName} on Midgray`, ...body });
     } catch (err) {

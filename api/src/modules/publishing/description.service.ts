@@ -53,7 +53,9 @@ export class DescriptionService {
   /** The episode's description with its composed text, warnings and disclosure state. */
   async get(episodeId: string, role: Role, transaction?: Transaction): Promise<EpisodeDescription> {
     const h = await head(episodeId, transaction);
-    const [row, context] = await Promise.all([Description.findByPk(episodeId, { transaction }), descriptionContext(h, transaction)]);
+    // One after the other: queries of one transaction share a connection.
+    const row = await Description.findByPk(episodeId, { transaction });
+    const context = await descriptionContext(h, transaction);
     const parts = partsOf(row);
     const input = descriptionInputFrom(context, parts);
     const need = disclosureRequired(input);

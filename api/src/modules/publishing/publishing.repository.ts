@@ -165,7 +165,9 @@ export async function episodeHeadsInStage(channelId: string, stage: Episode['sta
 /** The composer's context for several episodes at once (two queries for any number of episodes). */
 export async function descriptionContexts(heads: EpisodeHead[], transaction?: Transaction): Promise<Map<string, DescriptionContext>> {
   const ids = heads.map((h) => h.id);
-  const [gear, tests] = await Promise.all([gearOfEpisodes(ids, transaction), testsOfEpisodes(ids, transaction)]);
+  // Sequential: inside a transaction both queries share one connection.
+  const gear = await gearOfEpisodes(ids, transaction);
+  const tests = await testsOfEpisodes(ids, transaction);
   const contexts = new Map<string, DescriptionContext>();
   for (const h of heads) {
     contexts.set(h.id, {
@@ -299,12 +301,11 @@ export type PublishingFacts = Pick<StageFacts, 'hasDescriptionDraft' | 'hasPropo
 export async function publishingFacts(episodeId: string, transaction: Transaction): Promise<PublishingFacts> {
   const head = await episodeHead(episodeId, transaction);
   if (!head) throw new Error(`episode ${episodeId} not found`);
-  const [description, slots, gear, context] = await Promise.all([
-    Description.findByPk(episodeId, { transaction }),
-    PublishSlot.findAll({ where: { episodeId, status: ['proposed', 'approved'] }, transaction }),
-    gearOfEpisodes([episodeId], transaction).then((m) => m.get(episodeId) ?? []),
-    descriptionContext(head, transaction),
-  ]);
+  // One query after the other: they share the transaction's connection.
+  const description = await Description.findByPk(episodeId, { transaction });
+  const slots = await PublishSlot.findAll({ where: { episodeId, status: ['proposed', 'approved'] }, transaction });
+  const gear = (await gearOfEpisodes([episodeId], transaction)).get(episodeId) ?? [];
+  const context = await descriptionContext(head, transaction);
   const parts = partsOf(description);
   const input = descriptionInputFrom(context, parts);
   const need = disclosureRequired(input);

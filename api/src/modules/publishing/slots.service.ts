@@ -66,7 +66,8 @@ async function moveEpisode(h: EpisodeHead, to: Stage, actorId: string, reason: s
 
 /** The disclosure state of an episode as the composer resolves it. */
 async function disclosureOf(h: EpisodeHead, transaction?: Transaction) {
-  const [row, context] = await Promise.all([Description.findByPk(h.id, { transaction }), descriptionContext(h, transaction)]);
+  const row = await Description.findByPk(h.id, { transaction });
+  const context = await descriptionContext(h, transaction);
   const input = descriptionInputFrom(context, partsOf(row));
   const need = disclosureRequired(input);
   return { required: need.required, reasons: need.reasons, present: resolveDisclosure(input) !== '' };
@@ -88,7 +89,8 @@ export class SlotsService {
   /** The Schedule tab: current slot, history (newest first), embargoes, and what the caller may do. */
   async schedule(episodeId: string, role: Role, transaction?: Transaction): Promise<EpisodeSchedule> {
     const h = await this.head(episodeId, transaction);
-    const [slots, gear] = await Promise.all([slotsOfEpisodes([h.id], transaction), gearOfEpisodes([h.id], transaction)]);
+    const slots = await slotsOfEpisodes([h.id], transaction);
+    const gear = await gearOfEpisodes([h.id], transaction);
     const history = slots.get(h.id) ?? [];
     return {
       episode: { id: h.id, title: h.title, stage: h.stage, version: h.version, publicUrl: h.publicUrl, channelTimeZone: h.channelTimeZone },
