@@ -13,14 +13,14 @@ export interface EpisodeTab {
   Component: LazyExoticComponent<ComponentType<EpisodeTabProps>> | null;
 }
 
+/** Helper for a tab module that default-exports its component (declared before the list that calls it). */
+export const lazyTab = (load: () => Promise<{ default: ComponentType<EpisodeTabProps> }>) => lazy(load);
+
 // The app composes features here; a feature adds its line when its tab exists. `null` = not built yet.
 export const EPISODE_TABS: EpisodeTab[] = [
-  { key: 'plan', label: 'Plan', Component: null },
+  { key: 'plan', label: 'Plan', Component: lazyTab(() => import('../features/plans/components/plan-tab.tsx')) },
   { key: 'footage', label: 'Footage', Component: null },
   { key: 'readouts', label: 'Readouts', Component: null },
   { key: 'description', label: 'Description', Component: null },
   { key: 'schedule', label: 'Schedule', Component: null },
 ];
-
-/** Helper for a tab module that default-exports its component. */
-export const lazyTab = (load: () => Promise<{ default: ComponentType<EpisodeTabProps> }>) => lazy(load);

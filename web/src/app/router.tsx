@@ -17,6 +17,7 @@ export const router = createBrowserRouter([
       { path: 'board', element: <ComingPage title="Board" what="The episode board arrives with the board feature." /> },
       { path: 'gear', element: <ComingPage title="Gear" what="The gear list arrives with the board feature." /> },
       { path: 'calendar', element: <ComingPage title="Calendar" what="The calendar arrives with the publishing feature." /> },
+      { path: 'episodes/:id/shot-list', lazy: async () => ({ Component: (await import('../features/plans/components/shot-list-page.tsx')).ShotListPage }) },
       { path: 'team', lazy: async () => ({ Component: (await import('../features/team/components/team-page.tsx')).TeamPage }) },
       { path: '*', element: <RouteError /> },
     ],
