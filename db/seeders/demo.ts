@@ -3,6 +3,7 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { Activity, Channel, Episode, EpisodeGear, Gear, Membership, User } from '../src/index.ts';
 import { DEMO_CHANNEL_NAME, DEMO_PEOPLE } from '../src/demo/people.ts';
+import { demoTestPlans } from './demo-plans.ts';
 
 /** A step of the demo seed; later features add theirs to DEMO_STEPS. */
 export type DemoStep = (ctx: DemoContext) => Promise<void>;
@@ -84,6 +85,7 @@ const baseSteps: DemoStep[] = [
 
 /** Steps run in order after people, channel and memberships exist. Later features append theirs. */
 export const DEMO_STEPS: DemoStep[] = [...baseSteps];
+DEMO_STEPS.push(demoTestPlans);
 
 /** Seeds the demo scenario once; returns false when it was already there. */
 export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<boolean> {
