@@ -25,6 +25,11 @@ import { registerPlanRoutes } from './modules/plans/plans.router.ts';
 import { registerPublishingRoutes } from './modules/publishing/publishing.router.ts';
 import { PlansService } from './modules/plans/plans.service.ts';
 import { ApiRoutes, type RouteInfo } from './routing.ts';
+import { Jobs } from './jobs/jobs.ts';
+import { defineFootageJobs } from './modules/footage/footage.jobs.ts';
+import { registerFootageRoutes } from './modules/footage/footage.router.ts';
+import { FootageService, UPLOAD_ROLES } from './modules/footage/footage.service.ts';
+import { createUploadServer, UPLOADS_PATH } from './uploads/tus.ts';
 
 export const API_VERSION = '0.1.0';
 /** Largest JSON body any route accepts. */
@@ -35,6 +40,8 @@ export interface AppContext {
   env: Env;
   sequelize: Sequelize;
   mailer: Mailer;
+  /** The job queue; createApp makes (and closes) its own when not given. */
+  jobs?: Jobs;
 }
 
 export interface AppOptions {
@@ -44,9 +51,21 @@ export interface AppOptions {
   invitesPerHour?: number;
 }
 
-/** Builds the Express app (no listen). Returns the app, its route list and a close() for its pool. */
-export function createApp(ctx: AppContext, opts: AppOptions = {}): { app: Express; routes: RouteInfo[]; close: () => Promise<void> } {
+/** What createApp returns: the app, its routes, the job queue and services other features hook into. */
+export interface BuiltApp {
+  app: Express;
+  routes: RouteInfo[];
+  jobs: Jobs;
+  /** Starts this process's job workers and schedules (server.ts; tests that need them). */
+  startWorkers: () => Promise<void>;
+  footage: FootageService;
+  close: () => Promise<void>;
+}
+
+/** Builds the Express app (no listen). Returns the app, its route list, its jobs and a close() for its pools. */
+export function createApp(ctx: AppContext, opts: AppOptions = {}): BuiltApp {
   const { env, sequelize, mailer } = ctx;
+  const jobs = ctx.jobs ?? new Jobs(env.DATABASE_URL);
   const app = express();
   app.disable('x-powered-by');
   if (env.TRUST_PROXY) app.set('trust proxy', 1);
@@ -94,6 +113,11 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): { app: Expres
     });
 
   // Uploads (tus) mount here, before any body parser: they stream the raw request body.
+  // The path equals the public URL; Express 5 needs the named wildcard. CSRF is checked inside.
+  const uploads = createUploadServer({ env, sequelize, footage: () => footage, csrfProtection });
+  const footage = new FootageService({ sequelize, jobs, storageDir: uploads.store.root, maxFileBytes: env.UPLOAD_MAX_BYTES, removeUpload: (id) => uploads.store.remove(id) });
+  defineFootageJobs(jobs, { footage, expiryMs: uploads.expiryMs, bytesOnDisk: (id) => uploads.store.bytesOnDisk(id), cleanupCron: env.UPLOAD_CLEANUP_CRON });
+  app.all(`${UPLOADS_PATH}{/*splat}`, ...uploads.handlers);
 
   app.use('/api', express.json({ limit: JSON_BODY_LIMIT, strict: true, type: ['application/json', 'application/*+json'] }));
   app.use('/api', csrfProtection);
@@ -117,6 +141,9 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): { app: Expres
   registerPlanRoutes(routes, { plans: new PlansService(sequelize) });
   registerPublishingRoutes(routes, { sequelize, mailer, publicUrl: env.PUBLIC_URL });
   if (env.FAKES) registerMailboxRoutes(routes, { mailboxDir: resolve(env.MAILBOX_DIR) });
+  registerFootageRoutes(routes, { footage });
+  // The tus endpoint is mounted above (before the body parsers); record it for the route matrix.
+  routes.list.push({ method: 'ALL', path: UPLOADS_PATH, access: UPLOAD_ROLES }, { method: 'ALL', path: `${UPLOADS_PATH}/:uploadId`, access: UPLOAD_ROLES });
 
   app.use('/api', routes.router);
   app.use('/api', apiNotFound);
@@ -129,5 +156,16 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): { app: Expres
   }
   app.use(errorHandler);
 
-  return { app, routes: routes.list, close: () => pool.end() };
+  return {
+    app,
+    routes: routes.list,
+    jobs,
+    startWorkers: () => jobs.startWorkers(),
+    footage,
+    close: async () => {
+      if (!ctx.jobs) await jobs.stop();
+      await uploads.close();
+      await pool.end();
+    },
+  };
 }

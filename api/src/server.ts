@@ -19,7 +19,10 @@ if (env.FAKES) {
 
 const sequelize = createDatabase(env.DATABASE_URL);
 const mailer = createMailer(env);
-const { app, close } = createApp({ env, sequelize, mailer });
+const { app, close, startWorkers } = createApp({ env, sequelize, mailer });
+// Job workers (footage checksum and probe, upload sweep) run in this process too; more worker
+// processes can run the same code elsewhere, since the queue lives in PostgreSQL.
+await startWorkers();
 const server = app.listen(env.PORT, env.HOST, () => {
   console.log(`[api] listening on http://${env.HOST}:${env.PORT}`);
 });

@@ -1,7 +1,10 @@
 // The expected status of every API route per caller. Bodies for writes are chosen so that a
 // caller who passes the access check gets a harmless, predictable answer (usually 400 from
 // validation), never a change other rows depend on.
-import { Episode, EpisodeGear, Gear } from '@midgray/db';
+import { randomBytes } from 'node:crypto';
+import { mkdir, writeFile } from 'node:fs/promises';
+import { join } from 'node:path';
+import { Episode, EpisodeGear, Footage, Gear, UploadRecord } from '@midgray/db';
 import type { Role } from '@midgray/shared';
 import type { Client, TestContext } from './helpers.ts';
 import { ISO_SWEEP_INPUT, makeEpisode } from './plan-fixtures.ts';
@@ -24,6 +27,8 @@ export interface MatrixRow {
   params?: (fx: MatrixFixture) => Record<string, string>;
   body?: (fx: MatrixFixture) => unknown;
   setup?: (fx: MatrixFixture) => Promise<void>;
+  /** For routes registered as ALL (the tus endpoint): the method and headers the matrix sends. */
+  send?: { method: 'HEAD' | 'POST' | 'PATCH' | 'DELETE'; headers?: (fx: MatrixFixture) => Record<string, string> };
 }
 
 /** Expected statuses when only members with `allowed` roles pass; the others get 403. */
@@ -71,6 +76,37 @@ async function setupBoard(fx: MatrixFixture) {
 }
 const boardEpisode = (fx: MatrixFixture) => ({ id: fx.boardEpisodeId as string });
 const boardGear = (fx: MatrixFixture) => ({ id: fx.boardGearId as string });
+
+const PICKUP = ['editor', 'producer', 'admin'] as const;
+const ASSIGN = ['producer', 'admin'] as const;
+/**
+ * An episode with one received footage file (bytes and thumbnail on disk) and one unfinished
+ * upload started by the host; their ids go on the fixture for the footage and upload rows.
+ */
+async function setupFootage(fx: MatrixFixture) {
+  const storage = join(fx.ctx.mailboxDir, 'storage');
+  const episode = await Episode.create({ channelId: fx.channelId, title: 'Matrix footage episode', stage: 'shoot', position: 0 });
+  const base = { channelId: fx.channelId, episodeId: episode.id, kind: 'camera_original', originalName: 'A001_C001.mov' } as const;
+  const doneId = randomBytes(16).toString('hex');
+  const openId = randomBytes(16).toString('hex');
+  const done = await Footage.create({ ...base, uploadId: doneId, status: 'verified', uploaderId: fx.team.host.userId, format: 'isobmff', sizeBytes: 8, storageKey: `uploads/${doneId}`, thumbnailKey: null });
+  await done.update({ thumbnailKey: `thumbnails/${done.id}.jpg` });
+  const open = await Footage.create({ ...base, uploadId: openId, status: 'receiving', uploaderId: fx.team.host.userId, format: 'isobmff', sizeBytes: 100, storageKey: `uploads/${openId}` });
+  const later = new Date(Date.now() + 86_400_000);
+  await UploadRecord.create({ ...base, id: doneId, ownerId: fx.team.host.userId, offset: 8, length: 8, expiresAt: later, completedAt: new Date(), footageId: done.id });
+  await UploadRecord.create({ ...base, id: openId, ownerId: fx.team.host.userId, offset: 0, length: 100, expiresAt: later, footageId: open.id });
+  await mkdir(join(storage, 'uploads'), { recursive: true });
+  await mkdir(join(storage, 'thumbnails'), { recursive: true });
+  await writeFile(join(storage, 'uploads', doneId), '\0\0\0\x08ftyp');
+  await writeFile(join(storage, 'uploads', openId), '');
+  await writeFile(join(storage, 'thumbnails', `${done.id}.jpg`), Buffer.from([0xff, 0xd8, 0xff, 0xd9]));
+  fx.footageEpisodeId = episode.id;
+  fx.footageId = done.id;
+  fx.openUploadId = openId;
+}
+const footageRow = (fx: MatrixFixture) => ({ id: fx.footageId as string });
+const tusMetadata = (fx: MatrixFixture) =>
+  [['episodeId', fx.footageEpisodeId as string], ['kind', 'camera_original'], ['filename', 'A002_C001.mov']].map(([k, v]) => `${k} ${Buffer.from(v).toString('base64')}`).join(',');
 
 export const MATRIX: Record<string, MatrixRow> = {
   'GET /api/health': { expect: { anon: 200, outsider: 200, host: 200, editor: 200, producer: 200, admin: 200 } },
@@ -156,4 +192,23 @@ export const MATRIX: Record<string, MatrixRow> = {
   'PATCH /api/gear/:id': { expect: only(GEAR_MANAGE, 400, { anon: 403 }), params: boardGear, body: () => INVALID },
   // The item is used by the setup's episode, so a manager is told to archive it instead (409).
   'DELETE /api/gear/:id': { expect: only(GEAR_MANAGE, 409, { anon: 403 }), params: boardGear },
+  'GET /api/episodes/:id/footage': { expect: everyone(200), params: (fx) => ({ id: fx.footageEpisodeId as string }), setup: setupFootage },
+  'GET /api/footage/:id': { expect: everyone(200), params: footageRow },
+  'POST /api/footage/:id/pickup': { expect: only(PICKUP, 400, { anon: 403 }), params: footageRow, body: () => INVALID },
+  'POST /api/footage/:id/release': { expect: only(['host', 'editor', 'producer', 'admin'], 400, { anon: 403 }), params: footageRow, body: () => INVALID },
+  'POST /api/footage/:id/reassign': { expect: only(ASSIGN, 400, { anon: 403 }), params: footageRow, body: () => INVALID },
+  'GET /api/footage/:id/download': { expect: everyone(200), params: footageRow },
+  'GET /api/footage/:id/thumbnail': { expect: everyone(200), params: footageRow },
+  'PUT /api/upload-checksums/:uploadId': { expect: only(['host', 'editor', 'producer', 'admin'], 400, { anon: 403 }), params: (fx) => ({ uploadId: fx.openUploadId as string }), body: () => INVALID },
+  // tus creation with a length over the limit: members reach the size check (413), nothing is stored.
+  'ALL /api/uploads': {
+    expect: everyone(413),
+    send: { method: 'POST', headers: (fx) => ({ 'Tus-Resumable': '1.0.0', 'Upload-Length': String(2 ** 50), 'Upload-Metadata': tusMetadata(fx) }) },
+  },
+  // tus HEAD of the host's unfinished upload: only its owner may read or continue it.
+  'ALL /api/uploads/:uploadId': {
+    expect: { anon: 401, outsider: 404, host: 200, editor: 403, producer: 403, admin: 403 },
+    params: (fx) => ({ uploadId: fx.openUploadId as string }),
+    send: { method: 'HEAD', headers: () => ({ 'Tus-Resumable': '1.0.0' }) },
+  },
 };

@@ -71,6 +71,14 @@ export class Jobs {
     return id;
   }
 
+  /** Wakes this process's workers of these queues (after a transaction that queued jobs committed). */
+  wake(...names: string[]) {
+    for (const name of names) {
+      const worker = this.workerIds.get(name);
+      if (worker) this.boss.notifyWorker(worker);
+    }
+  }
+
   /** Starts a worker for every defined queue and registers the schedules. Idempotent. */
   async startWorkers(): Promise<void> {
     for (const d of this.definitions.values()) {

@@ -170,7 +170,7 @@ export type Footage = z.infer<typeof FootageSchema>;
 export const FootageStepOptionSchema = z.object({ id: UuidSchema, label: z.string(), testName: z.string() });
 export type FootageStepOption = z.infer<typeof FootageStepOptionSchema>;
 
-/** GET /api/episodes/:episodeId/footage */
+/** GET /api/episodes/:id/footage */
 export const FootageListSchema = z.object({
   footage: z.array(FootageSchema),
   steps: z.array(FootageStepOptionSchema),
@@ -179,7 +179,6 @@ export const FootageListSchema = z.object({
 });
 export type FootageList = z.infer<typeof FootageListSchema>;
 
-export const EpisodeFootageParamsSchema = z.strictObject({ episodeId: UuidSchema });
 export const UploadParamsSchema = z.strictObject({ uploadId: z.string().regex(/^[0-9a-f]{32}$/, 'Not an upload id') });
 
 export const ClientChecksumInputSchema = z.strictObject({ sha256: Sha256HexSchema });

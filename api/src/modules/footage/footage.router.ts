@@ -1,0 +1,48 @@
+import { ClientChecksumInputSchema, FootageVersionInputSchema, IdParamsSchema, ReassignFootageInputSchema, UploadParamsSchema } from '@midgray/shared';
+import { ANY_ROLE, byRecord, currentUser, membershipOf } from '../../middleware/auth.ts';
+import type { ApiRoutes } from '../../routing.ts';
+import type { FootageService } from './footage.service.ts';
+import { ASSIGN_ROLES, PICKUP_ROLES } from './footage.service.ts';
+
+const FOOTAGE = byRecord('footage');
+const WHAT = 'Footage';
+
+/** The episode's footage, pickup and release, downloads, thumbnails and the browser's checksum. */
+export function registerFootageRoutes(routes: ApiRoutes, deps: { footage: FootageService }) {
+  const { footage } = deps;
+  const actor = (req: Parameters<typeof currentUser>[0], res: Parameters<typeof membershipOf>[0]) => ({ userId: currentUser(req).id, role: membershipOf(res).role });
+
+  routes.get('/episodes/:id/footage', { access: ANY_ROLE, params: IdParamsSchema, scope: byRecord('episodes'), what: 'Episode' }, async (_req, res) => {
+    res.json(await footage.list(res.locals.input.params.id));
+  });
+  routes.get('/footage/:id', { access: ANY_ROLE, params: IdParamsSchema, scope: FOOTAGE, what: WHAT }, async (_req, res) => {
+    res.json(await footage.get(res.locals.input.params.id));
+  });
+  routes.post('/footage/:id/pickup', { access: PICKUP_ROLES, params: IdParamsSchema, scope: FOOTAGE, what: WHAT, body: FootageVersionInputSchema }, async (req, res) => {
+    res.json(await footage.pickUp(res.locals.input.params.id, actor(req, res), res.locals.input.body.version));
+  });
+  routes.post('/footage/:id/release', { access: ANY_ROLE, params: IdParamsSchema, scope: FOOTAGE, what: WHAT, body: FootageVersionInputSchema }, async (req, res) => {
+    res.json(await footage.release(res.locals.input.params.id, actor(req, res), res.locals.input.body.version));
+  });
+  routes.post('/footage/:id/reassign', { access: ASSIGN_ROLES, params: IdParamsSchema, scope: FOOTAGE, what: WHAT, body: ReassignFootageInputSchema }, async (req, res) => {
+    res.json(await footage.reassign(res.locals.input.params.id, actor(req, res), res.locals.input.body));
+  });
+  // Byte ranges (RFC 9110 §14), If-Range and HEAD come from Express's file sender.
+  routes.get('/footage/:id/download', { access: ANY_ROLE, params: IdParamsSchema, scope: FOOTAGE, what: WHAT }, async (_req, res, next) => {
+    const file = await footage.fileFor(res.locals.input.params.id);
+    res.attachment(file.name);
+    res.sendFile(file.path, { acceptRanges: true, lastModified: true, cacheControl: false, dotfiles: 'deny', headers: { 'Cache-Control': 'private, no-store', 'X-Content-Type-Options': 'nosniff' } }, (err) => {
+      if (err && !res.headersSent) next(err);
+    });
+  });
+  routes.get('/footage/:id/thumbnail', { access: ANY_ROLE, params: IdParamsSchema, scope: FOOTAGE, what: WHAT }, async (_req, res, next) => {
+    const path = await footage.thumbnailFor(res.locals.input.params.id);
+    res.type('image/jpeg');
+    res.sendFile(path, { headers: { 'Cache-Control': 'private, max-age=3600' } }, (err) => {
+      if (err && !res.headersSent) next(err);
+    });
+  });
+  routes.put('/upload-checksums/:uploadId', { access: ANY_ROLE, params: UploadParamsSchema, scope: byRecord('uploads', 'uploadId'), what: 'Upload', body: ClientChecksumInputSchema }, async (req, res) => {
+    res.json(await footage.setClientChecksum(res.locals.input.params.uploadId, currentUser(req).id, res.locals.input.body.sha256));
+  });
+}
