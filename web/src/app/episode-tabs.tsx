@@ -21,6 +21,6 @@ export const EPISODE_TABS: EpisodeTab[] = [
   { key: 'plan', label: 'Plan', Component: lazyTab(() => import('../features/plans/components/plan-tab.tsx')) },
   { key: 'footage', label: 'Footage', Component: null },
   { key: 'readouts', label: 'Readouts', Component: null },
-  { key: 'description', label: 'Description', Component: null },
-  { key: 'schedule', label: 'Schedule', Component: null },
+  { key: 'description', label: 'Description', Component: lazyTab(() => import('../features/publishing/components/description-tab.tsx')) },
+  { key: 'schedule', label: 'Schedule', Component: lazyTab(() => import('../features/publishing/components/schedule-tab.tsx')) },
 ];

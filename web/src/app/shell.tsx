@@ -1,4 +1,5 @@
 import { Suspense } from 'react';
+import type { Role } from '@midgray/shared';
 import { Navigate, NavLink, Outlet } from 'react-router-dom';
 import { Avatar } from '../components/ui/avatar.tsx';
 import { Loading } from '../components/ui/page.tsx';
@@ -6,13 +7,33 @@ import { useMe, useSignOut } from '../features/auth/api/me.ts';
 import { CreateChannelPage } from '../features/channels/components/create-channel-page.tsx';
 import { CurrentChannelProvider, useCurrentChannel } from '../features/channels/current-channel.tsx';
 
-/** Main navigation; other features add their pages here. */
-export const NAV = [
+/** Main navigation; other features add their pages here. `roles` limits an entry to those roles of the current channel. */
+export const NAV: readonly { to: string; label: string; roles?: readonly Role[] }[] = [
   { to: '/board', label: 'Board' },
   { to: '/gear', label: 'Gear' },
   { to: '/calendar', label: 'Calendar' },
+  { to: '/approvals', label: 'Approvals', roles: ['producer', 'admin'] },
   { to: '/team', label: 'Team' },
-] as const;
+];
+
+/** The NAV entries the caller's role in the current channel may use. */
+function useNav() {
+  const { channel } = useCurrentChannel();
+  return NAV.filter((n) => !n.roles || (channel && n.roles.includes(channel.role)));
+}
+
+function MainNav() {
+  const nav = useNav();
+  return (
+    <nav aria-label="Main" className="order-last -mx-1 flex w-full gap-1 overflow-x-auto sm:order-none sm:w-auto">
+      {nav.map((n) => (
+        <NavLink key={n.to} to={n.to} className={({ isActive }) => `rounded-md px-3 py-1.5 text-sm font-semibold whitespace-nowrap ${isActive ? 'bg-white text-ink' : 'text-white/85 hover:bg-white/10'}`}>
+          {n.label}
+        </NavLink>
+      ))}
+    </nav>
+  );
+}
 
 function ChannelSwitcher() {
   const { channel, channels, switchTo } = useCurrentChannel();
@@ -54,16 +75,12 @@ export function Shell() {
               Midgray
             </NavLink>
             <ChannelSwitcher />
-            <nav aria-label="Main" className="order-last -mx-1 flex w-full gap-1 overflow-x-auto sm:order-none sm:w-auto">
-              {NAV.map((n) => (
-                <NavLink key={n.to} to={n.to} className={({ isActive }) => `rounded-md px-3 py-1.5 text-sm font-semibold whitespace-nowrap ${isActive ? 'bg-white text-ink' : 'text-white/85 hover:bg-white/10'}`}>
-                  {n.label}
-                </NavLink>
-              ))}
-            </nav>
+            <MainNav />
             <div className="ml-auto flex items-center gap-2">
-              <Avatar name={me.data.user.name} size="sm" />
-              <span className="hidden text-sm md:inline">{me.data.user.name}</span>
+              <NavLink to="/profile" className="flex items-center gap-2 rounded-md px-1 py-0.5 hover:bg-white/10" aria-label={`Your profile (${me.data.user.name})`}>
+                <Avatar name={me.data.user.name} size="sm" />
+                <span className="hidden text-sm md:inline">{me.data.user.name}</span>
+              </NavLink>
               <button type="button" onClick={() => signOut.mutate()} className="rounded-md px-2 py-1 text-sm text-white/85 hover:bg-white/10">
                 Sign out
               </button>
