@@ -30,6 +30,9 @@ import { defineFootageJobs } from './modules/footage/footage.jobs.ts';
 import { registerFootageRoutes } from './modules/footage/footage.router.ts';
 import { FootageService, UPLOAD_ROLES } from './modules/footage/footage.service.ts';
 import { createUploadServer, UPLOADS_PATH } from './uploads/tus.ts';
+import { registerReadoutJob } from './modules/readouts/readout-job.ts';
+import { registerReadoutRoutes } from './modules/readouts/readouts.router.ts';
+import { ReadoutsService } from './modules/readouts/readouts.service.ts';
 
 export const API_VERSION = '0.1.0';
 /** Largest JSON body any route accepts. */
@@ -142,6 +145,8 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): BuiltApp {
   registerPublishingRoutes(routes, { sequelize, mailer, publicUrl: env.PUBLIC_URL });
   if (env.FAKES) registerMailboxRoutes(routes, { mailboxDir: resolve(env.MAILBOX_DIR) });
   registerFootageRoutes(routes, { footage });
+  registerReadoutJob(jobs, { sequelize, storageDir: uploads.store.root });
+  registerReadoutRoutes(routes, { readouts: new ReadoutsService(sequelize, jobs, uploads.store.root) });
   // The tus endpoint is mounted above (before the body parsers); record it for the route matrix.
   routes.list.push({ method: 'ALL', path: UPLOADS_PATH, access: UPLOAD_ROLES }, { method: 'ALL', path: `${UPLOADS_PATH}/:uploadId`, access: UPLOAD_ROLES });
 

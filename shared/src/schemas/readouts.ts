@@ -84,8 +84,12 @@ export interface ReadoutParams {
   transfer: TransferName;
   /** 'chosen' when the request named it, 'auto' when it followed the file type. */
   transferFrom: 'chosen' | 'auto';
-  /** Seconds into the video (null for stills). */
+  /** Recovery: encoding of the reference frame's codes (follows its own file type when `auto`). */
+  referenceTransfer: TransferName | null;
+  /** Seconds into the video: as requested while queued (null = the middle), as used once measured; null for stills. */
   frameTimeSeconds: number | null;
+  /** Recovery: seconds into the reference video, once measured. */
+  referenceFrameTimeSeconds: number | null;
   /** Recovery: the stride requested (null = default); the one used is in the results. */
   stride: number | null;
   /** The channel's thresholds when the readout was requested. */
@@ -171,6 +175,8 @@ export interface ReadoutDto {
   kind: ReadoutKind;
   status: ReadoutState;
   footageId: string | null;
+  /** Original name of the measured file (null once the file is deleted). */
+  footageName: string | null;
   referenceFootageId: string | null;
   params: ReadoutParams;
   softwareVersion: string;
