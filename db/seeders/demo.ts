@@ -4,6 +4,7 @@ import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { Activity, Channel, Episode, EpisodeGear, Gear, Membership, User } from '../src/index.ts';
 import { DEMO_CHANNEL_NAME, DEMO_PEOPLE } from '../src/demo/people.ts';
 import { demoTestPlans } from './demo-plans.ts';
+import { demoPublishing } from './demo-publishing.ts';
 
 /** A step of the demo seed; later features add theirs to DEMO_STEPS. */
 export type DemoStep = (ctx: DemoContext) => Promise<void>;
@@ -86,6 +87,7 @@ const baseSteps: DemoStep[] = [
 /** Steps run in order after people, channel and memberships exist. Later features append theirs. */
 export const DEMO_STEPS: DemoStep[] = [...baseSteps];
 DEMO_STEPS.push(demoTestPlans);
+DEMO_STEPS.push(demoPublishing);
 
 /** Seeds the demo scenario once; returns false when it was already there. */
 export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<boolean> {
