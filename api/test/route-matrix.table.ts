@@ -9,6 +9,7 @@ import type { Role } from '@midgray/shared';
 import type { Client, TestContext } from './helpers.ts';
 import { ISO_SWEEP_INPUT, makeEpisode } from './plan-fixtures.ts';
 import { daysFromNow, proposedSlot, publishingEpisode } from './publishing-fixtures.ts';
+import { readoutScene, storageOf } from './readout-fixtures.ts';
 
 export type Caller = 'anon' | 'outsider' | Role;
 
@@ -107,6 +108,14 @@ async function setupFootage(fx: MatrixFixture) {
 const footageRow = (fx: MatrixFixture) => ({ id: fx.footageId as string });
 const tusMetadata = (fx: MatrixFixture) =>
   [['episodeId', fx.footageEpisodeId as string], ['kind', 'camera_original'], ['filename', 'A002_C001.mov']].map(([k, v]) => `${k} ${Buffer.from(v).toString('base64')}`).join(',');
+
+const READOUT_RUN = ['editor', 'admin'] as const;
+/** Two ISO sweeps, a frame grab on the first step and a done readout with its images (issue 6). */
+async function setupReadouts(fx: MatrixFixture) {
+  const scene = await readoutScene({ channelId: fx.channelId, host: fx.team.host, storageDir: storageOf(fx.ctx), title: 'Matrix readouts episode' });
+  fx.readouts = scene;
+}
+const ro = (fx: MatrixFixture) => fx.readouts as Awaited<ReturnType<typeof readoutScene>>;
 
 export const MATRIX: Record<string, MatrixRow> = {
   'GET /api/health': { expect: { anon: 200, outsider: 200, host: 200, editor: 200, producer: 200, admin: 200 } },
@@ -211,4 +220,18 @@ export const MATRIX: Record<string, MatrixRow> = {
     params: (fx) => ({ uploadId: fx.openUploadId as string }),
     send: { method: 'HEAD', headers: () => ({ 'Tus-Resumable': '1.0.0' }) },
   },
+  // Readouts (issue 6): members read; editors and admins ('readout.run') run readouts and set the region.
+  'GET /api/episodes/:id/readouts': { expect: everyone(200), params: (fx) => ({ id: ro(fx).episodeId }), setup: setupReadouts },
+  'GET /api/tests/:id/readouts': { expect: everyone(200), params: (fx) => ({ id: ro(fx).testId }) },
+  'GET /api/tests/:id/readouts.csv': { expect: everyone(200), params: (fx) => ({ id: ro(fx).testId }) },
+  'POST /api/tests/:id/readouts': { expect: only(READOUT_RUN, 400, { anon: 403 }), params: (fx) => ({ id: ro(fx).testId }), body: () => INVALID },
+  'POST /api/steps/:id/readouts': { expect: only(READOUT_RUN, 400, { anon: 403 }), params: (fx) => ({ id: ro(fx).stepId }), body: () => INVALID },
+  'PUT /api/tests/:id/readout-region': { expect: only(READOUT_RUN, 400, { anon: 403 }), params: (fx) => ({ id: ro(fx).testId }), body: () => INVALID },
+  'GET /api/steps/:id/frame.jpg': { expect: everyone(200), params: (fx) => ({ id: ro(fx).stepId }) },
+  'GET /api/readouts/:id/difference-map.png': { expect: everyone(200), params: (fx) => ({ id: ro(fx).readoutId }) },
+  'GET /api/readouts/:id/frame.jpg': { expect: everyone(200), params: (fx) => ({ id: ro(fx).readoutId }) },
+  'GET /api/readouts/:id/reference-frame.jpg': { expect: everyone(200), params: (fx) => ({ id: ro(fx).readoutId }) },
+  'GET /api/channels/:channelId/readouts/tests': { expect: everyone(200) },
+  // The query string rides on the path parameter, as for the calendar.
+  'GET /api/channels/:channelId/readouts/compare': { expect: everyone(200), params: (fx) => ({ channelId: `${fx.channelId}?tests=${ro(fx).testId},${ro(fx).otherTestId}` }) },
 };
