@@ -142,7 +142,7 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): BuiltApp {
   registerEpisodeRoutes(routes, { episodes: new EpisodesService(sequelize) });
   registerGearRoutes(routes, { gear: new GearService(sequelize) });
   registerPlanRoutes(routes, { plans: new PlansService(sequelize) });
-  registerPublishingRoutes(routes, { sequelize, mailer, publicUrl: env.PUBLIC_URL });
+  registerPublishingRoutes(routes, { sequelize, mailer, publicUrl: env.PUBLIC_URL, jobs, footageEvents: footage.events });
   if (env.FAKES) registerMailboxRoutes(routes, { mailboxDir: resolve(env.MAILBOX_DIR) });
   registerFootageRoutes(routes, { footage });
   registerReadoutJob(jobs, { sequelize, storageDir: uploads.store.root });

@@ -417,6 +417,10 @@ describe('e-mail kinds and opt-outs', () => {
     expect(mail.html).toContain('A001_C003.mov (camera original)');
     expect(await mailsTo(quiet.email)).toEqual([]);
     expect(await mailsTo(team.host.email)).toEqual([]);
+    // Wired in the app: when the footage feature reports a verified file, the editors hear of it.
+    await ctx.built.footage.events.emitReady({ footageId: episode.id, channelId: channel.id, episodeId: episode.id, kind: 'graded_render', originalName: 'K9_grade_v2.mov', uploaderId: null });
+    const [second] = await mailsTo(team.editor.email);
+    expect(second.text).toContain('K9_grade_v2.mov (graded render)');
   });
 
   it('gear due back: producers get one reminder per item and due date within 3 days in the channel’s zone; opted-out producers none', async () => {

@@ -17,7 +17,9 @@ import {
   SaveDescriptionInputSchema,
   UpdateEmailPreferencesInputSchema,
 } from '@midgray/shared';
+import { registerGearDueBackJob, type JobRegistry } from '../../jobs/gear-due-back.ts';
 import type { Mailer } from '../../mail/mailer.ts';
+import { notifyFootageReady } from '../../mail/notifications.ts';
 import { ANY_ROLE, byRecord, currentUser, membershipOf, type ChannelScope } from '../../middleware/auth.ts';
 import type { ApiRoutes } from '../../routing.ts';
 import { CalendarService } from './calendar.service.ts';
@@ -33,13 +35,30 @@ const episode: ChannelScope = byRecord('episodes');
 /** Slots have no channel column of their own: their episode's channel decides. */
 const slotScope: ChannelScope = { param: 'id', sql: 'SELECT e.channel_id FROM publish_slots s JOIN episodes e ON e.id = s.episode_id WHERE s.id = :id' };
 
+/** Footage kinds as the "ready for pickup" e-mail names them. */
+const FOOTAGE_KIND_WORDS: Record<string, string> = { camera_original: 'camera original', graded_render: 'graded render', frame_grab: 'frame grab' };
+
+/** The footage feature's "verified" events, as far as publishing listens to them. */
+export interface FootageReadySource {
+  onReady(listener: (event: { episodeId: string; kind: string; originalName: string }) => void | Promise<void>): unknown;
+}
+
 /**
  * Publishing: the Description tab, publish slots and their approval, the approval queue, the
- * calendar and its private feed, and the user's e-mail and feed settings.
+ * calendar and its private feed, and the user's e-mail and feed settings. Also defines the gear
+ * due-back reminder job on `jobs`, and e-mails editors when the footage feature reports verified footage.
  */
-export function registerPublishingRoutes(routes: ApiRoutes, deps: { sequelize: Sequelize; mailer: Mailer; publicUrl: string }) {
+export function registerPublishingRoutes(
+  routes: ApiRoutes,
+  deps: { sequelize: Sequelize; mailer: Mailer; publicUrl: string; jobs?: JobRegistry; footageEvents?: FootageReadySource },
+) {
+  const mail = { sequelize: deps.sequelize, mailer: deps.mailer, publicUrl: deps.publicUrl };
+  if (deps.jobs) registerGearDueBackJob(deps.jobs, mail);
+  deps.footageEvents?.onReady(async (e) => {
+    await notifyFootageReady(mail, { episodeId: e.episodeId, footage: [{ name: e.originalName, kind: FOOTAGE_KIND_WORDS[e.kind] ?? e.kind.replace(/_/g, ' ') }] });
+  });
   const descriptions = new DescriptionService(deps.sequelize);
-  const slots = new SlotsService(deps.sequelize, deps);
+  const slots = new SlotsService(deps.sequelize, mail);
   const calendar = new CalendarService(deps.sequelize, deps.publicUrl);
   const profile = new ProfileService();
   const id = (res: { locals: Record<string, any> }) => res.locals.input.params.id as string;
