@@ -26,6 +26,7 @@ import {
 } from '@midgray/shared';
 import { AppError } from '../../errors.ts';
 import { recordActivity } from '../../lib/activity.ts';
+import { lockBoard } from '../episodes/episodes.repository.ts';
 import { notifyApprovalRequested, notifySlotDecided, type MailDeps } from '../../mail/notifications.ts';
 import { approvalBlockers } from './approval-rules.ts';
 import {
@@ -86,6 +87,16 @@ export class SlotsService {
     return h;
   }
 
+  /**
+   * The episode, locked for a change that may move it on the board: the board's lock first (as the
+   * board's own moves take it, so positions stay a gap-free sequence and no deadlock can form), then the row.
+   */
+  private async headForMove(episodeId: string, transaction: Transaction) {
+    const unlocked = await this.head(episodeId, transaction);
+    await lockBoard(unlocked.channelId, transaction);
+    return this.head(episodeId, transaction, true);
+  }
+
   /** The Schedule tab: current slot, history (newest first), embargoes, and what the caller may do. */
   async schedule(episodeId: string, role: Role, transaction?: Transaction): Promise<EpisodeSchedule> {
     const h = await this.head(episodeId, transaction);
@@ -118,7 +129,7 @@ export class SlotsService {
       throw new AppError('invalid_input', `${formatInstantWithZoneName(startsAt, input.zone)} is in the past: propose a future date and time`, { field: 'date' });
     }
     const result = await this.sequelize.transaction(async (transaction) => {
-      const h = await this.head(episodeId, transaction, true);
+      const h = await this.headForMove(episodeId, transaction);
       if (h.stage === 'live') throw new AppError('invalid_input', 'The episode is already live: its publish slot can no longer change');
       const current = await PublishSlot.findOne({ where: { episodeId, status: ['proposed', 'approved'] }, transaction, lock: transaction.LOCK.UPDATE });
       let backToApproval = false;
@@ -163,7 +174,7 @@ export class SlotsService {
   async approve(slotId: string, actorId: string, role: Role, input: ApproveSlotInput, now = new Date()): Promise<EpisodeSchedule> {
     const episodeId = await this.sequelize.transaction(async (transaction) => {
       const slot = await this.lockedSlot(slotId, transaction);
-      const h = await this.head(slot.episodeId, transaction, true);
+      const h = await this.headForMove(slot.episodeId, transaction);
       const gear = (await gearOfEpisodes([h.id], transaction)).get(h.id) ?? [];
       const blockers = approvalBlockers({
         role,
@@ -218,7 +229,7 @@ export class SlotsService {
   /** Marks a Scheduled episode Live with its public URL, once the approved slot has come. */
   async markLive(episodeId: string, actorId: string, role: Role, input: MarkLiveInput, now = new Date()): Promise<EpisodeSchedule> {
     await this.sequelize.transaction(async (transaction) => {
-      const h = await this.head(episodeId, transaction, true);
+      const h = await this.headForMove(episodeId, transaction);
       if (h.version !== input.version) {
         throw new AppError('stale_version', 'Someone changed this episode meanwhile: reload and try again', { currentVersion: h.version });
       }
