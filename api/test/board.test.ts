@@ -95,14 +95,16 @@ describe('the board', () => {
       );
     };
     const counted = async () => {
+      // Sequelize reads `options.logging` on every statement: count the statements of one request.
       const sql: string[] = [];
-      const before = ctx.sequelize.options.logging;
-      ctx.sequelize.options.logging = (s: string) => void sql.push(s);
+      const options = (ctx.sequelize as unknown as { options: { logging: unknown } }).options;
+      const before = options.logging;
+      options.logging = (s: string) => void sql.push(s);
       try {
         const data = await board(team.host, channelId);
         return { queries: sql.length, cards: data.episodes.length, sql };
       } finally {
-        ctx.sequelize.options.logging = before;
+        options.logging = before;
       }
     };
     await seed(10);

@@ -43,7 +43,14 @@ function optionalCtes(t: OptionalTables): { ctes: string[]; joins: string[]; fie
     joins.push('LEFT JOIN sl ON sl.episode_id = eps.id');
     fields.push(`'openSpecLines', COALESCE(sl.n, 0)`);
   } else fields.push(`'openSpecLines', NULL`);
-  fields.push(`'slots', ${slotsJsonAgg(t, 'eps.id')}`);
+  if (hasSlotTable(t)) {
+    ctes.push(
+      `ps AS (SELECT p.episode_id, json_agg(${SLOT_JSON} ORDER BY p.starts_at) AS slots
+                FROM publish_slots p JOIN eps ON eps.id = p.episode_id WHERE p.status IN ('proposed','approved') GROUP BY p.episode_id)`,
+    );
+    joins.push('LEFT JOIN ps ON ps.episode_id = eps.id');
+    fields.push(`'slots', COALESCE(ps.slots, '[]'::json)`);
+  } else fields.push(`'slots', '[]'::json`);
   return { ctes, joins, fields };
 }
 
@@ -53,10 +60,13 @@ function optionalCtes(t: OptionalTables): { ctes: string[]; joins: string[]; fie
  * date read slots from here on the board and the episode page.
  */
 function slotsJsonAgg(t: OptionalTables, episodeIdSql: string): string {
-  if (!t.has('publish_slots', 'episode_id', 'starts_at', 'zone', 'status')) return `'[]'::json`;
-  return `COALESCE((SELECT json_agg(json_build_object('startsAt', ${iso('p.starts_at')}, 'zone', p.zone, 'status', p.status) ORDER BY p.starts_at)
+  if (!hasSlotTable(t)) return `'[]'::json`;
+  return `COALESCE((SELECT json_agg(${SLOT_JSON} ORDER BY p.starts_at)
                       FROM publish_slots p WHERE p.episode_id = ${episodeIdSql} AND p.status IN ('proposed','approved')), '[]'::json)`;
 }
+
+const hasSlotTable = (t: OptionalTables) => t.has('publish_slots', 'episode_id', 'starts_at', 'zone', 'status');
+const SLOT_JSON = `json_build_object('startsAt', ${iso('p.starts_at')}, 'zone', p.zone, 'status', p.status)`;
 
 /**
  * The whole board of a channel as JSON text, built by PostgreSQL in one statement: the cards

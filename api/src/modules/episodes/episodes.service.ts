@@ -21,6 +21,7 @@ import {
 } from '@midgray/shared';
 import { AppError } from '../../errors.ts';
 import { recordActivity } from '../../lib/activity.ts';
+import { FreshCoalescer } from '../../lib/fresh-coalescer.ts';
 import { gearOfEpisode } from '../gear/gear.service.ts';
 import { archivedEpisodes, boardJson, columnIds, episodeActivity, episodeExtras, lockBoard, stageFacts, writeColumns } from './episodes.repository.ts';
 
@@ -37,11 +38,17 @@ type UpdateInput = Omit<UpdateEpisodeInput, 'targetPublishWeek'> & { targetPubli
 const fieldError = (field: string, message: string) => new AppError('validation_failed', `Check ${field}: ${message}`, { fieldErrors: { [`body.${field}`]: [message] } });
 
 export class EpisodesService {
+  /** Concurrent reads of one channel's board share a statement, never an older one (see FreshCoalescer). */
+  private readonly boardReads = new FreshCoalescer<Buffer | null>();
+
   constructor(private readonly sequelize: Sequelize) {}
 
-  /** The board of a channel as JSON text (one SQL statement; see boardJson). */
-  async boardJson(channelId: string): Promise<string> {
-    const json = await boardJson(this.sequelize, channelId);
+  /** The board of a channel as UTF-8 JSON bytes (one SQL statement; see boardJson). */
+  async boardJson(channelId: string): Promise<Buffer> {
+    const json = await this.boardReads.get(channelId, async () => {
+      const text = await boardJson(this.sequelize, channelId);
+      return text === null ? null : Buffer.from(text, 'utf8');
+    });
     if (!json) throw new AppError('not_found', 'Channel not found');
     return json;
   }
