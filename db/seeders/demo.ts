@@ -5,6 +5,7 @@ import { Activity, Channel, Episode, EpisodeGear, Gear, Membership, User } from 
 import { DEMO_CHANNEL_NAME, DEMO_PEOPLE } from '../src/demo/people.ts';
 import { demoTestPlans } from './demo-plans.ts';
 import { demoPublishing } from './demo-publishing.ts';
+import { demoBoard } from './demo-board.ts';
 
 /** A step of the demo seed; later features add theirs to DEMO_STEPS. */
 export type DemoStep = (ctx: DemoContext) => Promise<void>;
@@ -88,6 +89,7 @@ const baseSteps: DemoStep[] = [
 export const DEMO_STEPS: DemoStep[] = [...baseSteps];
 DEMO_STEPS.push(demoTestPlans);
 DEMO_STEPS.push(demoPublishing);
+DEMO_STEPS.push(demoBoard);
 
 /** Seeds the demo scenario once; returns false when it was already there. */
 export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<boolean> {
