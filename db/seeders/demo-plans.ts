@@ -67,7 +67,7 @@ export const demoTestPlans: DemoStep = async (ctx) => {
   });
   await addLighting(ctx, noise.test.id, [
     { label: 'Wall socket A', volts: 230, breakerAmps: 16, fixtures: [{ name: 'Lumetra Panel 600 Bi-colour', watts: 600, quantity: 2 }] },
-    { label: 'Kitchen circuit', volts: 230, breakerAmps: 10, fixtures: [{ name: 'Open-face 1000 W', watts: 1000 }, { name: 'Backlight 650 W', watts: 650 }, { name: 'Practical lamp', watts: 150 }] },
+    { label: 'Kitchen circuit', volts: 230, breakerAmps: 10, fixtures: [{ name: 'Open-face 1000 W', watts: 1000 }, { name: 'Backlight 800 W', watts: 800 }, { name: 'Practical lamp', watts: 150 }] },
   ]);
 
   // K9 latitude: ±5 stops in full stops at ISO 800; every required line is filled.
@@ -121,7 +121,7 @@ export const demoTestPlans: DemoStep = async (ctx) => {
   for (const [i, step] of k7.steps.entries()) {
     const planned = step.planned as { iso: number; fNumber: number; shutterAngleDeg: number; ndDensity: number };
     // One step was shot a third of a stop off by mistake: the plan shows the difference.
-    const actual = step.iso === 1250 ? { ...planned, fNumber: 3.2, lightChangeStops: 0 } : { iso: planned.iso, fNumber: planned.fNumber, shutterAngleDeg: planned.shutterAngleDeg, ndDensity: planned.ndDensity, lightChangeStops: 0 };
+    const actual = step.iso === 1250 ? { ...planned, fNumber: 2.8, lightChangeStops: 0 } : { iso: planned.iso, fNumber: planned.fNumber, shutterAngleDeg: planned.shutterAngleDeg, ndDensity: planned.ndDensity, lightChangeStops: 0 };
     const [observation, rating] = notes[step.iso!] ?? ['', null];
     await step.update(
       { actual: { iso: actual.iso, fNumber: actual.fNumber, shutterAngleDeg: actual.shutterAngleDeg, ndDensity: actual.ndDensity, lightChangeStops: 0 }, observation, rating, shotAt: new Date(+shotAt + i * 4 * 60_000), shotById: ctx.people['ilse.marrow'], version: 2 },

@@ -252,7 +252,7 @@ export function IsoSweepFields(props: FieldsProps) {
   const { register, errors, disabled } = props;
   return (
     <>
-      <fieldset className="grid grid-cols-2 gap-3 sm:grid-cols-4">
+      <fieldset className="grid grid-cols-2 gap-3">
         <legend className="col-span-full mb-1 text-sm font-semibold">ISO ladder</legend>
         <NumberField label="Base ISO" path="inputs.baseIso" register={register} errors={errors} disabled={disabled} />
         <NumberField label="Lowest ISO" path="inputs.minIso" register={register} errors={errors} disabled={disabled} />
@@ -272,7 +272,7 @@ export function BracketFields(props: FieldsProps) {
   const { register, errors, disabled } = props;
   return (
     <>
-      <fieldset className="grid grid-cols-2 gap-3 sm:grid-cols-3">
+      <fieldset className="grid grid-cols-2 gap-3">
         <legend className="col-span-full mb-1 text-sm font-semibold">Bracket</legend>
         <NumberField label="Base ISO" path="inputs.baseIso" register={register} errors={errors} disabled={disabled} />
         <NumberField label="Range ± (stops)" path="inputs.maxOffsetStops" hint="1 to 6" register={register} errors={errors} disabled={disabled} />

@@ -96,7 +96,8 @@ export function LightingPanel({ episodeId, test, canEdit }: { episodeId: string;
                     <p className="mt-1 text-xs tabular-nums">
                       {load.watts} W · {load.amps.toFixed(1)} A of {load.breakerAmps} A ({pct} %; continuous limit {load.continuousLimitAmps.toFixed(1)} A = {Math.round(CONTINUOUS_LOAD_FRACTION * 100)} %)
                     </p>
-                    {load.warning && <p className="mt-1 text-xs font-semibold text-danger" role="alert">{load.warning}</p>}
+                    {/* The safety note follows once below the circuits, so it is not repeated in every warning. */}
+                    {load.warning && <p className="mt-1 text-xs font-semibold text-danger" role="alert">{load.warning.replace(ELECTRICAL_SAFETY_NOTE, '').trim()}</p>}
                   </div>
                 )}
               </li>

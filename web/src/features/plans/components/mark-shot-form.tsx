@@ -86,7 +86,7 @@ export function MarkShotForm({ episodeId, testId, step, onClose }: { episodeId: 
         name="rating"
         render={({ field }) => (
           <fieldset>
-            <legend className="mb-1 text-sm font-medium text-ink-soft">Rating {field.value ? `: ${field.value} (${RATING_WORDS[field.value]})` : '(optional)'}</legend>
+            <legend className="mb-1 text-sm font-medium text-ink-soft">Rating{field.value ? `: ${field.value} (${RATING_WORDS[field.value]})` : ' (optional)'}</legend>
             <div className="flex flex-wrap gap-1">
               {[1, 2, 3, 4, 5].map((n) => (
                 <label key={n} className={`flex h-11 w-11 cursor-pointer items-center justify-center rounded-md border text-base font-semibold has-[:focus-visible]:outline-3 has-[:focus-visible]:outline-[#1f5fbf] ${field.value === n ? 'border-accent bg-accent text-white' : 'border-line-strong bg-card text-ink'}`}>

@@ -122,7 +122,7 @@ export default function PlanTab({ episodeId }: EpisodeTabProps) {
         </div>
       )}
       {adding && (
-        <Panel title={`New ${TEST_KIND_LABELS[adding].toLowerCase()}`}>
+        <Panel title={`New test: ${TEST_KIND_LABELS[adding]}`}>
           <p className="-mt-2 mb-3 text-xs text-ink-muted">{KIND_HELP[adding]}</p>
           <TestEditor
             episodeId={episodeId}

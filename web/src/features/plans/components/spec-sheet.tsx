@@ -25,7 +25,7 @@ function LineRow({ episodeId, testId, line, canEdit }: { episodeId: string; test
   };
   const flag = (name: 'checked' | 'inDescription' | 'required', label: string) => (
     <label className="flex min-h-9 items-center gap-1.5 text-xs whitespace-nowrap text-ink-soft">
-      <input type="checkbox" className="h-4 w-4" checked={line[name]} disabled={!canEdit} onChange={(e) => update.mutate({ id: line.id, version: line.version, [name]: e.target.checked }, { onError })} aria-label={`${label}: ${line.label}`} />
+      <input type="checkbox" className="h-4 w-4" checked={line[name]} disabled={!canEdit || update.isPending} onChange={(e) => update.mutate({ id: line.id, version: line.version, [name]: e.target.checked }, { onError })} aria-label={`${label}: ${line.label}`} />
       <span aria-hidden="true">{label}</span>
     </label>
   );

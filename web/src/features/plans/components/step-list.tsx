@@ -9,7 +9,7 @@ function ShotState({ step }: { step: TestStepDto }) {
   return (
     <span className="inline-flex flex-wrap items-center gap-1 text-xs">
       <span className="rounded-full bg-ok-soft px-2 py-0.5 font-semibold text-ok">Shot</span>
-      {step.rating && <span aria-label={`rated ${step.rating} of 5`} className="font-semibold">{'★'.repeat(step.rating)}<span className="text-line-strong">{'★'.repeat(5 - step.rating)}</span></span>}
+      {step.rating && <span role="img" aria-label={`rated ${step.rating} of 5`} className="font-semibold">{'★'.repeat(step.rating)}<span className="text-line-strong">{'★'.repeat(5 - step.rating)}</span></span>}
       <span className="text-ink-muted">
         {step.shotBy?.name} · {new Date(step.shotAt).toLocaleString(undefined, { dateStyle: 'short', timeStyle: 'short' })}
       </span>
