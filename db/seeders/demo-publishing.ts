@@ -62,7 +62,7 @@ export const demoPublishing: DemoStep = async (ctx) => {
     { by: 'dario.fenwick', daysAgo: 1, changed: ['chapters', 'gearLinks'], parts: { summary: panelSummary, chapters: panelChapters, gearLinks: panelLinks, disclosure: '' } },
   ]);
   const panelSlot = await PublishSlot.create(
-    { episodeId: ctx.episodes.panel, startsAt: at(now, 5, '18:00', 'Europe/Berlin'), zone: 'Europe/Berlin', status: 'proposed', proposalNote: 'Friday evening, before the weekend shoots.', proposedById: host, createdAt: new Date(+now - DAY_MS) },
+    { episodeId: ctx.episodes.panel, startsAt: at(now, 5, '18:00', 'Europe/Berlin'), zone: 'Europe/Berlin', status: 'proposed', proposalNote: 'Evening slot, a week after the lens episode.', proposedById: host, createdAt: new Date(+now - DAY_MS) },
     { transaction },
   );
   await Activity.create(

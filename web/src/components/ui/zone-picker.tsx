@@ -57,7 +57,7 @@ export function ZonePicker({
                 aria-pressed={value === q.zone}
                 className={`rounded-full border px-2 py-0.5 text-xs ${value === q.zone ? 'border-ink bg-ink text-white' : 'border-line-strong bg-card text-ink-soft hover:bg-paper'}`}
               >
-                {q.label}: {q.zone}
+                {q.label === q.zone ? q.zone : `${q.label}: ${q.zone}`}
               </button>
             ))}
         </div>
