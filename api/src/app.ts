@@ -68,7 +68,7 @@ export interface BuiltApp {
 /** Builds the Express app (no listen). Returns the app, its route list, its jobs and a close() for its pools. */
 export function createApp(ctx: AppContext, opts: AppOptions = {}): BuiltApp {
   const { env, sequelize, mailer } = ctx;
-  const jobs = ctx.jobs ?? new Jobs(env.DATABASE_URL);
+  const jobs = ctx.jobs ?? new Jobs(env.DATABASE_URL, { schema: env.JOBS_SCHEMA });
   const app = express();
   app.disable('x-powered-by');
   if (env.TRUST_PROXY) app.set('trust proxy', 1);

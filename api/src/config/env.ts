@@ -44,6 +44,8 @@ export const EnvSchema = z.object({
   UPLOAD_CLEANUP_CRON: z.string().default('*/15 * * * *'),
   /** Upload locks: 'postgres' (advisory locks, safe with several API processes) or 'memory' (one process only). */
   UPLOAD_LOCKER: z.enum(['postgres', 'memory']).default('postgres'),
+  /** PostgreSQL schema of the job queue (pg-boss). Tests give each app its own, so one test's workers never take another's jobs. */
+  JOBS_SCHEMA: z.string().regex(/^[a-z][a-z0-9_]{0,49}$/, 'JOBS_SCHEMA must be a lower-case SQL name (letters, digits, _)').default('pgboss'),
   TRUST_PROXY: bool.default(false),
 });
 export type Env = z.infer<typeof EnvSchema>;
