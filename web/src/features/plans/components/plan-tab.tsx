@@ -142,13 +142,12 @@ export default function PlanTab({ episodeId }: EpisodeTabProps) {
       )}
 
       {tests.length > 1 && (
-        <div role="tablist" aria-label="Tests" className="-mx-1 flex gap-1 overflow-x-auto px-1 pb-1">
+        <div role="group" aria-label="Tests of this episode" className="-mx-1 flex gap-1 overflow-x-auto px-1 pb-1">
           {tests.map((t) => (
             <button
               key={t.id}
-              role="tab"
               type="button"
-              aria-selected={t.id === current?.id}
+              aria-pressed={t.id === current?.id}
               onClick={() => setSelected(t.id)}
               className={`rounded-md border px-3 py-1.5 text-sm font-semibold whitespace-nowrap ${t.id === current?.id ? 'border-ink bg-ink text-white' : 'border-line-strong bg-card text-ink hover:bg-paper'}`}
             >
