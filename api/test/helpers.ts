@@ -19,6 +19,8 @@ import { createMailer } from '../src/mail/mailer.ts';
 export interface TestContext {
   app: ReturnType<typeof createApp>['app'];
   routes: ReturnType<typeof createApp>['routes'];
+  /** The app's job queue, services and worker start (footage checks run only after startWorkers()). */
+  built: ReturnType<typeof createApp>;
   sequelize: ReturnType<typeof createDatabase>;
   oauthUrl: string;
   mailboxDir: string;
@@ -54,6 +56,7 @@ export async function startTestApp(opts: AppOptions & { env?: Record<string, str
   return {
     app: built.app,
     routes: built.routes,
+    built,
     sequelize,
     oauthUrl,
     mailboxDir,

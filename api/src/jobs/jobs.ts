@@ -11,6 +11,8 @@ interface Definition {
   name: string;
   queue: Omit<PgBoss.Queue, 'name'>;
   work: PgBoss.WorkOptions;
+  /** Jobs one worker runs at once (fetched as one batch, each completed or failed on its own). */
+  concurrency: number;
   handler: JobHandler<any>;
 }
 
@@ -46,8 +48,8 @@ export class Jobs {
   }
 
   /** Declares a queue and its handler; workers run only after startWorkers(). */
-  define<T extends object>(name: string, handler: JobHandler<T>, opts: { queue?: Omit<PgBoss.Queue, 'name'>; work?: PgBoss.WorkOptions } = {}) {
-    this.definitions.set(name, { name, handler, queue: opts.queue ?? { retryLimit: 3, retryDelay: 5, expireInSeconds: 3600 }, work: opts.work ?? {} });
+  define<T extends object>(name: string, handler: JobHandler<T>, opts: { queue?: Omit<PgBoss.Queue, 'name'>; work?: PgBoss.WorkOptions; concurrency?: number } = {}) {
+    this.definitions.set(name, { name, handler, queue: opts.queue ?? { retryLimit: 3, retryDelay: 5, expireInSeconds: 3600 }, work: opts.work ?? {}, concurrency: opts.concurrency ?? 1 });
   }
 
   /** Declares a cron schedule (pg-boss runs it once per slot across all processes) for a defined queue. */
@@ -84,8 +86,17 @@ export class Jobs {
     for (const d of this.definitions.values()) {
       if (this.workerIds.has(d.name)) continue;
       await this.ensureQueue(d.name);
-      const id = await this.boss.work(d.name, { batchSize: 1, pollingIntervalSeconds: this.polling, ...d.work }, async (jobs: PgBoss.Job<object>[]) => {
-        for (const job of jobs) await d.handler(job.data, job);
+      const id = await this.boss.work(d.name, { batchSize: d.concurrency, pollingIntervalSeconds: this.polling, ...d.work }, async (jobs: PgBoss.Job<object>[]) => {
+        const results = await Promise.allSettled(jobs.map((job) => d.handler(job.data, job)));
+        // pg-boss completes the whole batch when this returns; failed ones are failed first (and retried).
+        for (const [i, r] of results.entries()) {
+          if (r.status === 'rejected') {
+            console.error(`[jobs] ${d.name} ${jobs[i].id} failed:`, r.reason);
+            await this.boss.fail(d.name, jobs[i].id, { message: String((r.reason as Error)?.message ?? r.reason) });
+          }
+        }
+        // A worker waits its polling interval after each batch; when there was work, look again at once.
+        if (jobs.length) this.boss.notifyWorker(this.workerIds.get(d.name)!);
       });
       this.workerIds.set(d.name, id);
     }

@@ -218,7 +218,9 @@ export class FootageService {
         transaction,
       );
       // The jobs go in with the footage: a crash cannot leave a received file nobody checks.
-      const db = { executeSql: async (text: string, values: unknown[]) => ({ rows: (await this.sequelize.query(text, { bind: values as never[], transaction }))[0] as unknown[] }) };
+      // pg-boss writes through this transaction's own connection (its `db` option).
+      const connection = (transaction as unknown as { connection: { query: (text: string, values: unknown[]) => Promise<{ rows: unknown[] }> } }).connection;
+      const db = { executeSql: (text: string, values: unknown[]) => connection.query(text, values) };
       await this.deps.jobs.send(FOOTAGE_JOBS.checksum, { footageId: u.footage_id }, { db });
       await this.deps.jobs.send(FOOTAGE_JOBS.probe, { footageId: u.footage_id }, { db });
       return u.footage_id;
