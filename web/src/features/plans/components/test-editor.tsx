@@ -88,6 +88,13 @@ export function TestEditor({ episodeId, kind, test, onDone }: { episodeId: strin
   return (
     <form onSubmit={submit} noValidate aria-label={test ? `Edit ${test.name}` : `New ${TEST_KIND_LABELS[kind]}`} className="grid gap-5 lg:grid-cols-[minmax(20rem,26rem)_1fr]">
       <div className="flex flex-col gap-4">
+        {/* On a phone the preview sits below the form: keep its gist in view while typing. */}
+        {drafts && (
+          <p className="sticky top-0 z-10 -mx-1 rounded-md border border-line bg-paper px-2 py-1 text-xs text-ink-soft lg:hidden" aria-hidden="true">
+            Gives {drafts.length} {drafts.length === 1 ? 'step' : 'steps'}
+            {drafts.some((d) => d.planned.warning) && <span className="font-semibold text-warn"> · {drafts.filter((d) => d.planned.warning).length} cannot be held</span>} · table below
+          </p>
+        )}
         <div className="grid grid-cols-3 gap-3">
           <TextField className="col-span-2" label="Test name" disabled={saving} error={formState.errors.name?.message} {...register('name')} />
           <TextField label="Seconds per step" type="number" step="any" inputMode="decimal" disabled={saving} error={errorAt(formState.errors, 'secondsPerStep')} {...register('secondsPerStep', asNumber)} />
