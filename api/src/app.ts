@@ -79,7 +79,8 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): BuiltApp {
         useDefaults: true,
         directives: {
           'default-src': ["'self'"],
-          'script-src': ["'self'"],
+          // 'wasm-unsafe-eval' only allows compiling WebAssembly (the footage checksum worker's SHA-256), not eval.
+          'script-src': ["'self'", "'wasm-unsafe-eval'"],
           'style-src': ["'self'", "'unsafe-inline'"],
           'img-src': ["'self'", 'data:', 'blob:'],
           'font-src': ["'self'", 'data:'],

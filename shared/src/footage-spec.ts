@@ -120,7 +120,8 @@ export function codecLabel(codec: string): string {
 /** The spec-sheet values a comparison reads: key → value as typed. */
 export type SpecValues = Partial<Record<ProbeComparedKey, string>>;
 
-const LABELS: Record<ProbeComparedKey, string> = {
+/** Spec-sheet labels of the lines a probe is compared with. */
+export const PROBE_KEY_LABELS: Record<ProbeComparedKey, string> = {
   resolution: 'Resolution',
   frame_rate: 'Frame rate',
   codec: 'Codec',
@@ -154,9 +155,9 @@ export interface SpecComparison {
  */
 export function compareProbeWithSpec(probe: ProbeSummary, spec: SpecValues, kind: FootageKind): SpecComparison {
   const out: SpecComparison = { mismatches: [], matched: [], skipped: [] };
-  const skip = (key: ProbeComparedKey, reason: string) => out.skipped.push({ key, label: LABELS[key], reason });
+  const skip = (key: ProbeComparedKey, reason: string) => out.skipped.push({ key, label: PROBE_KEY_LABELS[key], reason });
   const differ = (key: ProbeComparedKey, expected: string, actual: string, difference: string) =>
-    out.mismatches.push({ key, label: LABELS[key], expected, actual, difference });
+    out.mismatches.push({ key, label: PROBE_KEY_LABELS[key], expected, actual, difference });
 
   for (const key of KEYS_BY_KIND[kind]) {
     const text = spec[key]?.trim() ?? '';

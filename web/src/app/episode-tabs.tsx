@@ -19,7 +19,7 @@ export const lazyTab = (load: () => Promise<{ default: ComponentType<EpisodeTabP
 // The app composes features here; a feature adds its line when its tab exists. `null` = not built yet.
 export const EPISODE_TABS: EpisodeTab[] = [
   { key: 'plan', label: 'Plan', Component: lazyTab(() => import('../features/plans/components/plan-tab.tsx')) },
-  { key: 'footage', label: 'Footage', Component: null },
+  { key: 'footage', label: 'Footage', Component: lazyTab(() => import('../features/footage/components/footage-tab.tsx')) },
   { key: 'readouts', label: 'Readouts', Component: null },
   { key: 'description', label: 'Description', Component: lazyTab(() => import('../features/publishing/components/description-tab.tsx')) },
   { key: 'schedule', label: 'Schedule', Component: lazyTab(() => import('../features/publishing/components/schedule-tab.tsx')) },

@@ -9,6 +9,7 @@ import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import {
   compareProbeWithSpec,
   PROBE_COMPARED_KEYS,
+  PROBE_KEY_LABELS,
   type Footage as FootageDto,
   type FootageKind,
   type FootageList,
@@ -277,7 +278,7 @@ export class FootageService {
         mismatches = cmp.mismatches;
         spec = { testName: sheet.testName, skipped: cmp.skipped };
       } else {
-        spec.skipped = PROBE_COMPARED_KEYS.map((key) => ({ key, label: key, reason: f.step_id ? 'The step has no test' : 'Choose the test step this file belongs to: the episode has no single test to compare with' }));
+        spec.skipped = PROBE_COMPARED_KEYS.map((key) => ({ key, label: PROBE_KEY_LABELS[key], reason: f.step_id ? 'The step has no test' : 'Choose the test step this file belongs to: the episode has no single test to compare with' }));
       }
     }
     let thumbnailKey: string | null = null;

@@ -1,0 +1,193 @@
+// The upload area: what the files are and which test step they belong to, then an Uppy dashboard
+// that sends them over tus to /api/uploads (progress, speed, time left, pause and resume; a file
+// added again after a reload resumes from the server's offset). Each file's SHA-256 is computed
+// in a web worker meanwhile and sent with the upload, or right after it when hashing finishes later.
+import '@uppy/core/css/style.min.css';
+import '@uppy/dashboard/css/style.min.css';
+import { useQueryClient } from '@tanstack/react-query';
+import Uppy, { type UppyFile } from '@uppy/core';
+import Dashboard from '@uppy/react/dashboard';
+import Tus from '@uppy/tus';
+import { useEffect, useRef, useState } from 'react';
+import { extensionsForKind, FOOTAGE_KIND_LABELS, FOOTAGE_KINDS, type FootageKind, type FootageStepOption } from '@midgray/shared';
+import { SelectField } from '../../../components/ui/field.tsx';
+import { Panel } from '../../../components/ui/page.tsx';
+import { getCsrfToken } from '../../../lib/api-client.ts';
+import { footageListQueryOptions, sendClientChecksum } from '../api/footage.ts';
+import { sha256OfFile } from '../hash/sha256.ts';
+import { formatBytes } from './format.ts';
+
+type FileMeta = { episodeId?: string; kind?: FootageKind; stepId?: string; sha256?: string; name?: string; type?: string };
+type FootageUppy = Uppy<FileMeta, Record<string, never>>;
+
+interface Checksum {
+  name: string;
+  size: number;
+  bytes: number;
+  sha256?: string;
+  error?: string;
+  /** Upload id once the upload finished, so a late checksum can follow it. */
+  uploadId?: string;
+  sent?: boolean;
+}
+
+/** Reads the person-facing message from a tus error: the API's JSON message or the server's text. */
+export function uploadErrorMessage(error: unknown): string {
+  const res = (error as { originalResponse?: { getBody?: () => string; getStatus?: () => number } })?.originalResponse;
+  const body = res?.getBody?.();
+  if (body) {
+    try {
+      const parsed = JSON.parse(body) as { error?: { message?: string } };
+      if (parsed.error?.message) return parsed.error.message;
+    } catch {
+      /* plain text from the upload server */
+    }
+    return body.trim();
+  }
+  if (typeof navigator !== 'undefined' && !navigator.onLine) return 'You are offline: add the file again when you are back online and it continues where it stopped';
+  return 'The upload stopped: check your connection and add the file again to continue where it stopped';
+}
+
+export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: string; steps: FootageStepOption[]; maxFileBytes: number }) {
+  const qc = useQueryClient();
+  const [kind, setKind] = useState<FootageKind>('camera_original');
+  const [stepId, setStepId] = useState('');
+  const [uppy, setUppy] = useState<FootageUppy | null>(null);
+  const [sums, setSums] = useState<Record<string, Checksum>>({});
+  const sumsRef = useRef(sums);
+  sumsRef.current = sums;
+
+  useEffect(() => {
+    const u: FootageUppy = new Uppy<FileMeta, Record<string, never>>({
+      id: `footage-${episodeId}`,
+      autoProceed: false,
+      restrictions: { maxFileSize: maxFileBytes, allowedFileTypes: extensionsForKind('camera_original') },
+      meta: { episodeId, kind: 'camera_original', stepId: '' },
+    }).use(Tus, {
+      endpoint: '/api/uploads',
+      // chunkSize left unset: one request per file, resumed from the server's offset when it breaks.
+      retryDelays: [0, 1000, 3000, 5000, 10_000],
+      removeFingerprintOnSuccess: true,
+      allowedMetaFields: ['episodeId', 'kind', 'stepId', 'name', 'type', 'sha256'],
+      onBeforeRequest: async (req) => {
+        req.setHeader('X-CSRF-Token', await getCsrfToken());
+      },
+    });
+    const hashes = new Map<string, () => void>();
+    const update = (id: string, patch: Partial<Checksum>) => setSums((s) => (s[id] ? { ...s, [id]: { ...s[id], ...patch } } : s));
+    const sendIfReady = (id: string) => {
+      const c = sumsRef.current[id];
+      if (!c?.sha256 || !c.uploadId || c.sent) return;
+      update(id, { sent: true });
+      sendClientChecksum(c.uploadId, c.sha256)
+        .then(() => qc.invalidateQueries({ queryKey: footageListQueryOptions(episodeId).queryKey }))
+        .catch((err: Error) => update(id, { error: `Could not send the checksum: ${err.message}` }));
+    };
+    u.on('file-added', (file: UppyFile<FileMeta, Record<string, never>>) => {
+      setSums((s) => ({ ...s, [file.id]: { name: file.name ?? 'file', size: file.size ?? 0, bytes: 0 } }));
+      if (!(file.data instanceof File)) return;
+      const job = sha256OfFile(file.data, (bytes) => update(file.id, { bytes }));
+      hashes.set(file.id, job.cancel);
+      job.promise.then(
+        (sha256) => {
+          update(file.id, { sha256, bytes: file.size ?? 0 });
+          // Not started yet: the checksum travels with the upload's metadata.
+          const current = u.getFile(file.id);
+          if (current && !current.progress.uploadStarted) u.setFileMeta(file.id, { sha256 });
+          queueMicrotask(() => sendIfReady(file.id));
+        },
+        (err: Error) => update(file.id, { error: err.message }),
+      );
+    });
+    u.on('file-removed', (file) => {
+      hashes.get(file.id)?.();
+      setSums((s) => {
+        const { [file.id]: _gone, ...rest } = s;
+        return rest;
+      });
+    });
+    u.on('upload', () => {
+      setTimeout(() => void qc.invalidateQueries({ queryKey: footageListQueryOptions(episodeId).queryKey }), 800);
+    });
+    u.on('upload-success', (file, response) => {
+      if (!file) return;
+      const uploadId = response.uploadURL?.split('/').pop();
+      if (uploadId) {
+        update(file.id, { uploadId });
+        queueMicrotask(() => sendIfReady(file.id));
+      }
+      void qc.invalidateQueries({ queryKey: footageListQueryOptions(episodeId).queryKey });
+    });
+    u.on('upload-error', (file, error) => {
+      const message = uploadErrorMessage(error);
+      if (file) u.setFileState(file.id, { error: message });
+      u.info(message, 'error', 10_000);
+      void qc.invalidateQueries({ queryKey: footageListQueryOptions(episodeId).queryKey });
+    });
+    setUppy(u);
+    return () => {
+      for (const cancel of hashes.values()) cancel();
+      u.destroy();
+    };
+  }, [episodeId, maxFileBytes, qc]);
+
+  // The kind and step apply to files added from now on and to files not started yet.
+  useEffect(() => {
+    if (!uppy) return;
+    uppy.setMeta({ kind, stepId });
+    uppy.setOptions({ restrictions: { maxFileSize: maxFileBytes, allowedFileTypes: extensionsForKind(kind) } });
+    for (const f of uppy.getFiles()) if (!f.progress.uploadStarted) uppy.setFileMeta(f.id, { kind, stepId });
+  }, [uppy, kind, stepId, maxFileBytes]);
+
+  const checksumRows = Object.entries(sums);
+  return (
+    <Panel title="Upload footage">
+      <div className="mb-3 grid gap-3 sm:grid-cols-2">
+        <SelectField label="What are these files?" value={kind} onChange={(e) => setKind(e.target.value as FootageKind)} hint={`Accepted: ${extensionsForKind(kind).join(' ')}`}>
+          {FOOTAGE_KINDS.map((k) => (
+            <option key={k} value={k}>
+              {FOOTAGE_KIND_LABELS[k]}
+            </option>
+          ))}
+        </SelectField>
+        <SelectField label="Test step (optional)" value={stepId} onChange={(e) => setStepId(e.target.value)} hint={steps.length ? 'The probe compares the file with this test’s spec sheet' : 'This episode has no test steps yet'}>
+          <option value="">No particular step</option>
+          {steps.map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.testName} · {s.label}
+            </option>
+          ))}
+        </SelectField>
+      </div>
+      {uppy && (
+        <Dashboard
+          uppy={uppy}
+          width="100%"
+          height={320}
+          hideProgressDetails={false}
+          proudlyDisplayPoweredByUppy={false}
+          note={`Up to ${formatBytes(maxFileBytes)} per file. Interrupted? Add the same file again: it continues where it stopped.`}
+        />
+      )}
+      {checksumRows.length > 0 && (
+        <div className="mt-3" aria-label="Checksums">
+          <h3 className="text-sm font-semibold">SHA-256 computed in your browser</h3>
+          <ul className="mt-1 space-y-1 text-xs text-ink-soft">
+            {checksumRows.map(([id, c]) => (
+              <li key={id} className="flex flex-wrap items-baseline gap-x-2">
+                <span className="font-medium text-ink">{c.name}</span>
+                {c.error ? (
+                  <span className="text-danger">{c.error}</span>
+                ) : c.sha256 ? (
+                  <code className="break-all font-mono">{c.sha256}</code>
+                ) : (
+                  <span>{c.size ? Math.floor((100 * c.bytes) / c.size) : 0} % read</span>
+                )}
+              </li>
+            ))}
+          </ul>
+        </div>
+      )}
+    </Panel>
+  );
+}
