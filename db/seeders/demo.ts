@@ -6,6 +6,7 @@ import { DEMO_CHANNEL_NAME, DEMO_PEOPLE } from '../src/demo/people.ts';
 import { demoTestPlans } from './demo-plans.ts';
 import { demoPublishing } from './demo-publishing.ts';
 import { demoBoard } from './demo-board.ts';
+import { demoReadouts } from './demo-readouts.ts';
 
 /** A step of the demo seed; later features add theirs to DEMO_STEPS. */
 export type DemoStep = (ctx: DemoContext) => Promise<void>;
@@ -90,6 +91,8 @@ export const DEMO_STEPS: DemoStep[] = [...baseSteps];
 DEMO_STEPS.push(demoTestPlans);
 DEMO_STEPS.push(demoPublishing);
 DEMO_STEPS.push(demoBoard);
+// After the test plans: measures the K7 sweep they made and adds a measured baseline episode.
+DEMO_STEPS.push(demoReadouts);
 
 /** Seeds the demo scenario once; returns false when it was already there. */
 export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<boolean> {
