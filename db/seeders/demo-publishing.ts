@@ -2,7 +2,7 @@
 // episode waits in Approval with a proposed slot, the zoom long-term notes went live on an approved
 // slot, the K7 re-test has a draft and a proposed slot while still in Grade. Invented text throughout;
 // shop addresses use the reserved example.* domains.
-import { zonedTimeToInstant } from '@midgray/shared';
+import { formatInstantWithZoneName, zonedTimeToInstant } from '@midgray/shared';
 import { Activity, Description, DescriptionVersion, PublishSlot } from '../src/index.ts';
 import type { DemoContext, DemoStep } from './demo.ts';
 
@@ -66,7 +66,7 @@ export const demoPublishing: DemoStep = async (ctx) => {
     { transaction },
   );
   await Activity.create(
-    { channelId, actorId: host, subjectType: 'publish_slot', subjectId: panelSlot.id, episodeId: ctx.episodes.panel, action: 'slot.proposed', toValue: panelSlot.startsAt.toISOString(), details: { zone: 'Europe/Berlin' } },
+    { channelId, actorId: host, subjectType: 'publish_slot', subjectId: panelSlot.id, episodeId: ctx.episodes.panel, action: 'slot.proposed', toValue: formatInstantWithZoneName(panelSlot.startsAt, 'Europe/Berlin'), details: { startsAt: panelSlot.startsAt.toISOString(), zone: 'Europe/Berlin' }, createdAt: new Date(+now - DAY_MS) },
     { transaction },
   );
 

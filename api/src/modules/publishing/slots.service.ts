@@ -154,9 +154,10 @@ export class SlotsService {
           subjectId: slot.id,
           episodeId,
           action: 'slot.proposed',
-          fromValue: current ? new Date(current.startsAt).toISOString() : null,
-          toValue: startsAt,
-          details: { zone: input.zone, local: `${input.date} ${input.time}`, supersedes: current?.id ?? null },
+          // Read as people entered them: wall clock and zone; the instants stay in details.
+          fromValue: current ? formatInstantWithZoneName(current.startsAt, current.zone) : null,
+          toValue: formatInstantWithZoneName(startsAt, input.zone),
+          details: { startsAt, zone: input.zone, supersedes: current?.id ?? null, previousStartsAt: current ? new Date(current.startsAt).toISOString() : null },
         },
         transaction,
       );

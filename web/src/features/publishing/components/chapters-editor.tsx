@@ -38,71 +38,45 @@ export function ChaptersEditor({ episodeId, form, readOnly }: { episodeId: strin
       {fields.length === 0 ? (
         <p className="text-sm text-ink-muted">No chapters. Add them one by one, or paste the lines below.</p>
       ) : (
-        <div className="overflow-x-auto">
-          <table className="w-full text-sm">
-            <caption className="sr-only">Chapters</caption>
-            <thead>
-              <tr className="text-left text-xs text-ink-muted">
-                <th scope="col" className="w-24 pb-1 font-medium">
-                  Start
-                </th>
-                <th scope="col" className="pb-1 font-medium">
-                  Label
-                </th>
-                {!readOnly && (
-                  <th scope="col" className="w-28 pb-1 font-medium">
-                    <span className="sr-only">Actions</span>
-                  </th>
-                )}
-              </tr>
-            </thead>
-            <tbody>
-              {fields.map((f, i) => (
-                <tr key={f.id} className="align-top">
-                  <td className="py-1 pr-2">
-                    <input
-                      {...form.register(`chapters.${i}.time`)}
-                      aria-label={`Start of chapter ${i + 1}`}
-                      aria-invalid={!!errors?.[i]?.time}
-                      aria-describedby={errors?.[i]?.time ? `chapter-${i}-time-error` : undefined}
-                      readOnly={readOnly}
-                      inputMode="numeric"
-                      className={`${cell} font-mono`}
-                    />
-                    {errors?.[i]?.time && (
-                      <p id={`chapter-${i}-time-error`} className="mt-0.5 text-xs text-danger">
-                        {errors[i]!.time!.message}
-                      </p>
-                    )}
-                  </td>
-                  <td className="py-1 pr-2">
-                    <input
-                      {...form.register(`chapters.${i}.label`)}
-                      aria-label={`Label of chapter ${i + 1}`}
-                      aria-invalid={!!errors?.[i]?.label}
-                      readOnly={readOnly}
-                      className={cell}
-                    />
-                    {errors?.[i]?.label && <p className="mt-0.5 text-xs text-danger">{errors[i]!.label!.message}</p>}
-                  </td>
-                  {!readOnly && (
-                    <td className="py-1 whitespace-nowrap">
-                      <button type="button" className="rounded px-1.5 py-1 text-ink-soft hover:bg-paper disabled:opacity-40" onClick={() => move(i, i - 1)} disabled={i === 0} aria-label={`Move chapter ${i + 1} up`}>
-                        ↑
-                      </button>
-                      <button type="button" className="rounded px-1.5 py-1 text-ink-soft hover:bg-paper disabled:opacity-40" onClick={() => move(i, i + 1)} disabled={i === fields.length - 1} aria-label={`Move chapter ${i + 1} down`}>
-                        ↓
-                      </button>
-                      <button type="button" className="rounded px-1.5 py-1 text-danger hover:bg-danger-soft" onClick={() => remove(i)} aria-label={`Remove chapter ${i + 1}`}>
-                        Remove
-                      </button>
-                    </td>
-                  )}
-                </tr>
-              ))}
-            </tbody>
-          </table>
-        </div>
+        <ol className="flex flex-col gap-2" aria-label="Chapters">
+          {fields.map((f, i) => (
+            <li key={f.id} className="flex flex-wrap items-start gap-x-2 gap-y-1">
+              <div className="w-20 shrink-0">
+                <input
+                  {...form.register(`chapters.${i}.time`)}
+                  aria-label={`Start of chapter ${i + 1}`}
+                  aria-invalid={!!errors?.[i]?.time}
+                  aria-describedby={errors?.[i]?.time ? `chapter-${i}-time-error` : undefined}
+                  readOnly={readOnly}
+                  inputMode="numeric"
+                  placeholder="0:00"
+                  className={`${cell} font-mono`}
+                />
+              </div>
+              <div className="min-w-[10rem] flex-1">
+                <input {...form.register(`chapters.${i}.label`)} aria-label={`Label of chapter ${i + 1}`} aria-invalid={!!errors?.[i]?.label} readOnly={readOnly} placeholder="Label" className={cell} />
+              </div>
+              {!readOnly && (
+                <div className="ml-auto flex shrink-0 items-center">
+                  <button type="button" className="rounded px-2 py-1 text-ink-soft hover:bg-paper disabled:opacity-40" onClick={() => move(i, i - 1)} disabled={i === 0} aria-label={`Move chapter ${i + 1} up`}>
+                    ↑
+                  </button>
+                  <button type="button" className="rounded px-2 py-1 text-ink-soft hover:bg-paper disabled:opacity-40" onClick={() => move(i, i + 1)} disabled={i === fields.length - 1} aria-label={`Move chapter ${i + 1} down`}>
+                    ↓
+                  </button>
+                  <button type="button" className="rounded px-2 py-1 text-sm text-danger hover:bg-danger-soft" onClick={() => remove(i)} aria-label={`Remove chapter ${i + 1}`}>
+                    Remove
+                  </button>
+                </div>
+              )}
+              {(errors?.[i]?.time || errors?.[i]?.label) && (
+                <p id={`chapter-${i}-time-error`} className="w-full text-xs text-danger">
+                  {[errors[i]?.time?.message, errors[i]?.label?.message].filter(Boolean).join(' · ')}
+                </p>
+              )}
+            </li>
+          ))}
+        </ol>
       )}
       {!readOnly && (
         <>

@@ -82,7 +82,7 @@ describe('DescriptionTab', () => {
   });
 
   it('keeps the edits and offers to load the saved text when the save meets a newer version (409)', async () => {
-    const fetchMock = vi.fn(async (url: string) => {
+    const fetchMock = vi.fn(async (url: string, _init?: RequestInit) => {
       if (url === '/api/auth/csrf') return new Response(JSON.stringify({ token: 't' }), { status: 200 });
       return new Response(JSON.stringify({ error: { code: 'stale_version', message: 'Someone saved this description meanwhile: your changes were not saved.' } }), { status: 409 });
     });
@@ -98,6 +98,6 @@ describe('DescriptionTab', () => {
     expect(screen.getByRole('button', { name: 'Load the saved text (drops your edits)' })).toBeTruthy();
     expect((screen.getByLabelText(/What the video is about/) as HTMLTextAreaElement).value).toBe('My edit.');
     const put = fetchMock.mock.calls.find(([u]) => u === `/api/episodes/${EPISODE}/description`);
-    expect(JSON.parse((put![1] as RequestInit).body as string)).toEqual({ version: 1, summary: 'My edit.', chapters: [], gearLinks: [], disclosure: '' });
+    expect(JSON.parse(put![1]!.body as string)).toEqual({ version: 1, summary: 'My edit.', chapters: [], gearLinks: [], disclosure: '' });
   });
 });

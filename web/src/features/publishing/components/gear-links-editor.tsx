@@ -19,19 +19,19 @@ export function GearLinksEditor({ form, readOnly, trackingParams }: { form: UseF
       {fields.length === 0 && <p className="text-sm text-ink-muted">No links.</p>}
       <ul className="flex flex-col gap-3">
         {fields.map((f, i) => (
-          <li key={f.id} className="grid gap-2 rounded-md border border-line p-2 sm:grid-cols-[minmax(0,2fr)_minmax(0,1fr)_auto] sm:items-start">
+          <li key={f.id} className="flex flex-col gap-2 rounded-md border border-line p-2">
             <div>
               <input {...form.register(`gearLinks.${i}.url`)} type="url" placeholder="https://…" aria-label={`Address of link ${i + 1}`} aria-invalid={!!errors?.[i]?.url} readOnly={readOnly} className={cell} />
               {errors?.[i]?.url && <p className="mt-0.5 text-xs text-danger">{errors[i]!.url!.message}</p>}
             </div>
-            <input {...form.register(`gearLinks.${i}.label`)} placeholder="Label, e.g. Korvala K9 body" aria-label={`Label of link ${i + 1}`} readOnly={readOnly} className={cell} />
-            <div className="flex items-center justify-between gap-3 sm:justify-start">
+            <div className="flex flex-wrap items-center gap-x-3 gap-y-2">
+              <input {...form.register(`gearLinks.${i}.label`)} placeholder="Label, e.g. Korvala K9 body" aria-label={`Label of link ${i + 1}`} readOnly={readOnly} className={`${cell.replace('w-full ', '')} min-w-[10rem] flex-1`} />
               <label className="flex items-center gap-1.5 text-sm whitespace-nowrap">
                 <input type="checkbox" {...form.register(`gearLinks.${i}.commission`)} disabled={readOnly} className="h-4 w-4" />
                 Earns commission
               </label>
               {!readOnly && (
-                <button type="button" className="rounded px-1.5 py-1 text-sm text-danger hover:bg-danger-soft" onClick={() => remove(i)} aria-label={`Remove link ${i + 1}`}>
+                <button type="button" className="ml-auto rounded px-2 py-1 text-sm text-danger hover:bg-danger-soft" onClick={() => remove(i)} aria-label={`Remove link ${i + 1}`}>
                   Remove
                 </button>
               )}
