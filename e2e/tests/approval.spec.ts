@@ -25,6 +25,13 @@ test('A producer approves a publish slot from the queue; the host sees the episo
   const entry = page.getByRole('link', { name: new RegExp(`Approved publish slot.*${EPISODE}`) });
   await expect(entry).toBeVisible();
   await expect(page.getByRole('link', { name: new RegExp(`Proposed publish slot.*${EPISODE}`) })).toHaveCount(0);
+  // Through to the episode's Schedule tab: scheduled, with the producer's approval and comment.
+  await entry.click();
+  const schedule = page.getByRole('tabpanel', { name: 'Schedule' });
+  await expect(schedule.getByText('The episode is in Scheduled.')).toBeVisible();
+  await expect(schedule.getByRole('region', { name: 'Publish slot' })).toContainText('Approved');
+  await expect(schedule.getByRole('region', { name: 'Publish slot' })).toContainText('by Noor Halvard');
+  await expect(schedule.getByText('Comment: Good evening slot, go ahead.').first()).toBeVisible();
   await page.getByRole('button', { name: 'Sign out' }).click();
   await page.waitForURL('**/sign-in');
 
