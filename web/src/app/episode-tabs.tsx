@@ -20,7 +20,7 @@ export const lazyTab = (load: () => Promise<{ default: ComponentType<EpisodeTabP
 export const EPISODE_TABS: EpisodeTab[] = [
   { key: 'plan', label: 'Plan', Component: lazyTab(() => import('../features/plans/components/plan-tab.tsx')) },
   { key: 'footage', label: 'Footage', Component: lazyTab(() => import('../features/footage/components/footage-tab.tsx')) },
-  { key: 'readouts', label: 'Readouts', Component: null },
+  { key: 'readouts', label: 'Readouts', Component: lazyTab(() => import('../features/readouts/components/readouts-tab.tsx')) },
   { key: 'description', label: 'Description', Component: lazyTab(() => import('../features/publishing/components/description-tab.tsx')) },
   { key: 'schedule', label: 'Schedule', Component: lazyTab(() => import('../features/publishing/components/schedule-tab.tsx')) },
 ];

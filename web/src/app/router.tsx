@@ -20,6 +20,7 @@ export const router = createBrowserRouter([
       { path: 'approvals', lazy: async () => ({ Component: (await import('../features/publishing/components/approvals-page.tsx')).ApprovalsPage }) },
       { path: 'profile', lazy: async () => ({ Component: (await import('../features/profile/components/profile-page.tsx')).ProfilePage }) },
       { path: 'episodes/:id/shot-list', lazy: async () => ({ Component: (await import('../features/plans/components/shot-list-page.tsx')).ShotListPage }) },
+      { path: 'compare', lazy: async () => ({ Component: (await import('../features/readouts/components/compare-page.tsx')).ComparePage }) },
       { path: 'team', lazy: async () => ({ Component: (await import('../features/team/components/team-page.tsx')).TeamPage }) },
       { path: '*', element: <RouteError /> },
     ],

@@ -12,6 +12,7 @@ export const NAV: readonly { to: string; label: string; roles?: readonly Role[] 
   { to: '/board', label: 'Board' },
   { to: '/gear', label: 'Gear' },
   { to: '/calendar', label: 'Calendar' },
+  { to: '/compare', label: 'Compare' },
   { to: '/approvals', label: 'Approvals', roles: ['producer', 'admin'] },
   { to: '/team', label: 'Team' },
 ];
