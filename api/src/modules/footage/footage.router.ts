@@ -1,5 +1,6 @@
 import { ClientChecksumInputSchema, FootageVersionInputSchema, IdParamsSchema, ReassignFootageInputSchema, UploadParamsSchema } from '@midgray/shared';
 import { ANY_ROLE, byRecord, currentUser, membershipOf } from '../../middleware/auth.ts';
+import { AppError } from '../../errors.ts';
 import type { ApiRoutes } from '../../routing.ts';
 import type { FootageService } from './footage.service.ts';
 import { ASSIGN_ROLES, PICKUP_ROLES } from './footage.service.ts';
@@ -31,14 +32,15 @@ export function registerFootageRoutes(routes: ApiRoutes, deps: { footage: Footag
   routes.get('/footage/:id/download', { access: ANY_ROLE, params: IdParamsSchema, scope: FOOTAGE, what: WHAT }, async (_req, res, next) => {
     const file = await footage.fileFor(res.locals.input.params.id);
     res.attachment(file.name);
-    res.sendFile(file.path, { acceptRanges: true, lastModified: true, cacheControl: false, dotfiles: 'deny', headers: { 'Cache-Control': 'private, no-store', 'X-Content-Type-Options': 'nosniff' } }, (err) => {
-      if (err && !res.headersSent) next(err);
+    // `root` keeps the dot-file check to the server-made key (the storage folder itself may sit under .data/).
+    res.sendFile(file.key, { root: file.root, acceptRanges: true, lastModified: true, cacheControl: false, dotfiles: 'deny', headers: { 'Cache-Control': 'private, no-store', 'X-Content-Type-Options': 'nosniff' } }, (err) => {
+      if (err && !res.headersSent) next((err as { code?: string }).code === 'ENOENT' ? new AppError('not_found', 'The file is missing from storage: ask an admin to check the storage folder') : err);
     });
   });
   routes.get('/footage/:id/thumbnail', { access: ANY_ROLE, params: IdParamsSchema, scope: FOOTAGE, what: WHAT }, async (_req, res, next) => {
-    const path = await footage.thumbnailFor(res.locals.input.params.id);
+    const thumb = await footage.thumbnailFor(res.locals.input.params.id);
     res.type('image/jpeg');
-    res.sendFile(path, { headers: { 'Cache-Control': 'private, max-age=3600' } }, (err) => {
+    res.sendFile(thumb.key, { root: thumb.root, dotfiles: 'deny', headers: { 'Cache-Control': 'private, max-age=3600' } }, (err) => {
       if (err && !res.headersSent) next(err);
     });
   });

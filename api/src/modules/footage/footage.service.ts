@@ -432,19 +432,22 @@ export class FootageService {
     return this.get(id);
   }
 
-  /** Where a received file's bytes are, for downloads. */
-  async fileFor(id: string): Promise<{ path: string; name: string; size: number }> {
+  /** Where a received file's bytes are, for downloads: the storage root and the key under it. */
+  async fileFor(id: string): Promise<{ root: string; key: string; name: string; size: number }> {
     const f = await this.row(id);
     if (!f) throw new AppError('not_found', 'Footage not found');
     if (f.status === 'receiving' || !f.upload_id) throw new AppError('conflict', 'This file is still uploading: download it once it has arrived');
-    return { path: this.pathOf(`uploads/${f.upload_id}`), name: f.original_name, size: Number(f.size_bytes) };
+    const key = `uploads/${f.upload_id}`;
+    this.pathOf(key);
+    return { root: this.deps.storageDir, key, name: f.original_name, size: Number(f.size_bytes) };
   }
 
-  /** Where a file's thumbnail is, or 404. */
-  async thumbnailFor(id: string): Promise<string> {
+  /** Where a file's thumbnail is (storage root and key), or 404. */
+  async thumbnailFor(id: string): Promise<{ root: string; key: string }> {
     const f = await this.row(id);
     if (!f?.thumbnail_key) throw new AppError('not_found', 'This file has no thumbnail (yet)');
-    return this.pathOf(f.thumbnail_key);
+    this.pathOf(f.thumbnail_key);
+    return { root: this.deps.storageDir, key: f.thumbnail_key };
   }
 
   /**

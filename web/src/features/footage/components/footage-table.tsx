@@ -98,7 +98,7 @@ export function FootageTable({ footage, episodeId, channelId, me }: { footage: F
       {rows.length === 0 ? (
         <p className="rounded-md border border-dashed border-line-strong p-4 text-sm text-ink-muted">{footage.length ? 'No file matches these filters.' : 'No footage yet: upload the first files above.'}</p>
       ) : (
-        <div className="overflow-x-auto rounded-md border border-line">
+        <div className="relative max-w-full overflow-x-auto rounded-md border border-line">
           <table className="w-full min-w-[860px] text-sm">
             <caption className="sr-only">Footage of this episode</caption>
             <thead className="bg-paper text-ink-soft">

@@ -1,0 +1,92 @@
+// Journeys of the Footage tab: uploading through the dashboard (resumable, over tus), watching
+// progress, and seeing the file verified (browser and server SHA-256 agree) and probed.
+import { execFileSync } from 'node:child_process';
+import { createHash } from 'node:crypto';
+import { mkdirSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import type { Page } from '@playwright/test';
+import { DEMO, expect, signInAs, test } from '../fixtures/app.ts';
+
+/** Id of the demo episode whose title starts with `titleStart`, read from the board API as the signed-in user. */
+async function episodeId(page: Page, titleStart: string) {
+  const me = await (await page.request.get('/api/auth/me')).json();
+  const board = await (await page.request.get(`/api/channels/${me.channels[0].id}/board`)).json();
+  return (board.episodes as { id: string; title: string }[]).find((e) => e.title.startsWith(titleStart))!.id;
+}
+
+test('A host uploads a clip through the dashboard, watches its progress and sees it verified and probed', async ({ page }, info) => {
+  // A 2-second 1280×720 25 fps clip from ffmpeg’s test source (a few MB, so the throttled progress shows).
+  const dir = info.outputPath('clips');
+  mkdirSync(dir, { recursive: true });
+  const clip = join(dir, 'A007_C003_recorder.mp4');
+  execFileSync('ffmpeg', ['-v', 'error', '-y', '-f', 'lavfi', '-i', 'testsrc2=size=1280x720:rate=25', '-t', '2', '-c:v', 'libx264', '-preset', 'ultrafast', '-qp', '8', '-pix_fmt', 'yuv420p', clip]);
+  const sha = createHash('sha256').update(readFileSync(clip)).digest('hex');
+
+  await signInAs(page, DEMO.host);
+  const id = await episodeId(page, 'Field 7 recorder');
+  await page.goto(`/episodes/${id}?tab=footage`);
+  await expect(page.getByRole('tab', { name: 'Footage' })).toHaveAttribute('aria-selected', 'true');
+  await expect(page.getByRole('region', { name: 'Upload footage' })).toBeVisible();
+  await page.getByLabel('What are these files?').selectOption('camera_original');
+
+  // Slow the upload down so the progress can be seen (2 MB/s).
+  const cdp = await page.context().newCDPSession(page);
+  await cdp.send('Network.enable');
+  await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: 2 * 1024 * 1024 });
+
+  await page.locator('.uppy-Dashboard-input').first().setInputFiles(clip);
+  // The browser's checksum, computed in a worker, equals the file's.
+  await expect(page.getByRole('region', { name: 'Upload footage' }).getByText(sha)).toBeVisible({ timeout: 20_000 });
+  await page.getByRole('button', { name: /^Upload 1 file/ }).click();
+  const status = page.locator('.uppy-StatusBar');
+  await expect(status).toContainText(/Uploading/);
+  await expect(status).toContainText(/%/);
+  // Pause, then resume: tus continues from the server's offset.
+  await page.getByRole('button', { name: 'Pause', exact: true }).click();
+  await expect(status).toContainText(/Paused/);
+  await page.getByRole('button', { name: 'Resume', exact: true }).click();
+  await expect(status).toContainText(/Complete/, { timeout: 30_000 });
+  await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+
+  // The table shows the file, then its checks: verified, probed, with both checksums.
+  const table = page.getByRole('table', { name: 'Footage of this episode' });
+  const row = table.getByRole('row', { name: /A007_C003_recorder\.mp4/ });
+  await expect(row).toBeVisible();
+  await expect(row.getByText('Verified')).toBeVisible({ timeout: 30_000 });
+  await expect(row).toContainText('Camera original');
+  await expect(row).toContainText('0:02');
+  await row.getByRole('button', { name: 'A007_C003_recorder.mp4' }).click();
+  const probe = page.getByRole('region', { name: 'Probe' });
+  await expect(probe).toContainText('1280×720');
+  await expect(probe).toContainText('25 fps (25/1)');
+  await expect(probe).toContainText('H.264 / AVC');
+  await expect(probe).toContainText('4:2:0');
+  const checks = page.getByRole('region', { name: 'Checks' });
+  await expect(checks).toContainText('Checksums (SHA-256): match');
+  await expect(checks.getByText(sha)).toHaveCount(2);
+  await expect(page.getByRole('img', { name: 'First frame of A007_C003_recorder.mp4' })).toBeVisible();
+  await page.screenshot({ path: info.outputPath('footage-desktop.png'), fullPage: true });
+});
+
+test('An editor picks up a verified file and releases it; filters narrow the table', async ({ page }) => {
+  await signInAs(page, DEMO.editor);
+  const id = await episodeId(page, 'Field 7 recorder');
+  await page.goto(`/episodes/${id}?tab=footage`);
+  const table = page.getByRole('table', { name: 'Footage of this episode' });
+  const row = table.getByRole('row', { name: /A007_C003_recorder\.mp4/ });
+  await row.getByRole('button', { name: /^Pick up/ }).click();
+  await expect(row).toContainText('Dario Fenwick');
+  await expect(row).toContainText('since');
+  await row.getByRole('button', { name: /^Release/ }).click();
+  await expect(row).toContainText('Nobody');
+  await page.getByLabel('Status').selectOption('flagged');
+  await expect(row).toHaveCount(0);
+  await page.getByLabel('Status').selectOption('');
+  await page.getByLabel('Find').fill('A007');
+  await expect(row).toBeVisible();
+  // Sorting by size is announced on the column header.
+  await table.getByRole('button', { name: /^Size/ }).click();
+  await expect(table.getByRole('columnheader', { name: /Size/ })).toHaveAttribute('aria-sort', 'ascending');
+  await page.setViewportSize({ width: 390, height: 844 });
+  await page.screenshot({ path: test.info().outputPath('footage-phone.png'), fullPage: true });
+});
