@@ -76,6 +76,35 @@ export const ArchiveEpisodeInputSchema = z.strictObject({ version: z.number().in
 export type ArchiveEpisodeInput = z.infer<typeof ArchiveEpisodeInputSchema>;
 
 // ---------------------------------------------------------------------------------------------------
+// The episode form (create and edit): what a person types, '' for empty, turned into the API input.
+
+const isWeekInput = (s: string) => parseIsoWeek(s) !== null || DateOnlySchema.safeParse(s).success;
+
+export const EpisodeFormSchema = z.object({
+  title: EpisodeTitleSchema,
+  gearIds: z.array(UuidSchema).max(EPISODE_GEAR_MAX, `At most ${EPISODE_GEAR_MAX} gear items per episode`),
+  hostId: z.union([z.literal(''), UuidSchema]),
+  editorId: z.union([z.literal(''), UuidSchema]),
+  targetPublishWeek: z.string().trim().refine((s) => s === '' || isWeekInput(s), { message: 'Use a week like 2026-W19 or any date in it' }),
+  shootDate: z.union([z.literal(''), DateOnlySchema]),
+});
+export type EpisodeForm = z.input<typeof EpisodeFormSchema>;
+
+export const EMPTY_EPISODE_FORM: EpisodeForm = { title: '', gearIds: [], hostId: '', editorId: '', targetPublishWeek: '', shootDate: '' };
+
+/** The create/edit body for validated form values ('' → null; the week → its Monday). */
+export function episodeFormToInput(f: EpisodeForm) {
+  return {
+    title: f.title.trim(),
+    gearIds: f.gearIds,
+    hostId: f.hostId === '' ? null : f.hostId,
+    editorId: f.editorId === '' ? null : f.editorId,
+    targetPublishWeek: f.targetPublishWeek.trim() === '' ? null : mondayOfIsoWeek(f.targetPublishWeek.trim()),
+    shootDate: f.shootDate === '' ? null : f.shootDate,
+  };
+}
+
+// ---------------------------------------------------------------------------------------------------
 // Responses
 
 /** A publish slot as the board and the episode page need it (issue #7 owns slots). */

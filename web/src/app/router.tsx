@@ -1,6 +1,5 @@
 import { createBrowserRouter, Navigate } from 'react-router-dom';
 import { SignInPage } from '../features/auth/components/sign-in-page.tsx';
-import { ComingPage } from './placeholder.tsx';
 import { RouteError } from './route-error.tsx';
 import { Shell } from './shell.tsx';
 
@@ -14,8 +13,10 @@ export const router = createBrowserRouter([
     errorElement: <RouteError />,
     children: [
       { index: true, element: <Navigate to="/board" replace /> },
-      { path: 'board', element: <ComingPage title="Board" what="The episode board arrives with the board feature." /> },
-      { path: 'gear', element: <ComingPage title="Gear" what="The gear list arrives with the board feature." /> },
+      { path: 'board', lazy: async () => ({ Component: (await import('../features/board/components/board-page.tsx')).BoardPage }) },
+      { path: 'episodes/:id', lazy: async () => ({ Component: (await import('../features/board/components/episode-page.tsx')).EpisodePage }) },
+      { path: 'archive', lazy: async () => ({ Component: (await import('../features/board/components/archive-page.tsx')).ArchivePage }) },
+      { path: 'gear', lazy: async () => ({ Component: (await import('../features/gear/components/gear-page.tsx')).GearPage }) },
       { path: 'calendar', lazy: async () => ({ Component: (await import('../features/calendar/components/calendar-page.tsx')).CalendarPage }) },
       { path: 'approvals', lazy: async () => ({ Component: (await import('../features/publishing/components/approvals-page.tsx')).ApprovalsPage }) },
       { path: 'profile', lazy: async () => ({ Component: (await import('../features/profile/components/profile-page.tsx')).ProfilePage }) },
