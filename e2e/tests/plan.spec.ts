@@ -23,6 +23,8 @@ async function openPlan(page: Page, id: string) {
 }
 
 test('A host plans an ISO sweep, sees the steps follow the inputs, fills the spec sheet and marks a step shot on a phone', async ({ page }, info) => {
+  // A long journey with screenshots at two sizes and an accessibility scan.
+  test.slow();
   await signInAs(page, DEMO.host);
   const id = await episodeId(page, 'Field 7 recorder');
   await openPlan(page, id);
@@ -86,6 +88,7 @@ test('A host plans an ISO sweep, sees the steps follow the inputs, fills the spe
 });
 
 test('An editor reads the plan, sees the lighting warning, prints the shot list and downloads the CSV', async ({ page }, info) => {
+  test.slow();
   await signInAs(page, DEMO.editor);
   const id = await episodeId(page, 'K9 Cine: noise');
   await openPlan(page, id);
