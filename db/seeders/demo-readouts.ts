@@ -7,7 +7,7 @@
 // - a published baseline episode of the same body on firmware 3.0 with the same sweep and a
 //   latitude bracket ±3, so the compare page can put "before" and "after" side by side.
 // The readout engine is pure (frames in, figures out; no database, no HTTP), which is why the
-// seed may import it from the api workspace. Frames are small (640×360) to keep seeding quick.
+// seed may import it from the api workspace. Frames are small (480×270) to keep seeding quick.
 import { createHash, randomUUID } from 'node:crypto';
 import { mkdir, writeFile } from 'node:fs/promises';
 import { dirname, join, resolve } from 'node:path';
@@ -17,8 +17,8 @@ import { framePreview, noiseFigures, recoveryFigures, softwareVersion } from '..
 import { Activity, Episode, EpisodeGear, Footage, Readout, SpecSheetLine, Test, TestStep } from '../src/index.ts';
 import type { DemoContext, DemoStep } from './demo.ts';
 
-const W = 640;
-const H = 360;
+const W = 480;
+const H = 270;
 const day = 86_400_000;
 const hour = 3_600_000;
 
@@ -62,7 +62,7 @@ async function store(key: string, bytes: Buffer) {
 
 async function pngOf(frame: Frame): Promise<Buffer> {
   const { default: sharp } = await import('sharp');
-  return sharp(frame.data, { raw: { width: frame.width, height: frame.height, channels: 3 } }).toColourspace('rgb16').png({ compressionLevel: 2 }).toBuffer();
+  return sharp(frame.data, { raw: { width: frame.width, height: frame.height, channels: 3 } }).toColourspace('rgb16').png({ compressionLevel: 1 }).toBuffer();
 }
 
 /** A frame's PNG file and JPEG preview, encoded on sharp's threads while the next frame is made. */
