@@ -78,15 +78,15 @@ export function LightingPanel({ episodeId, test, canEdit }: { episodeId: string;
             const pct = load ? Math.round(load.loadFraction * 100) : null;
             return (
               <li key={c.key} className={`rounded-md border p-2 ${load?.overContinuousLimit ? 'border-danger/60 bg-danger-soft' : 'border-line'}`}>
-                <div className="grid grid-cols-[1fr_5rem_5rem_auto] items-end gap-2">
-                  <label className="flex flex-col gap-0.5 text-xs text-ink-soft">Circuit<input className={cell} value={c.label} disabled={disabled} onChange={(e) => setCircuit(i, { label: e.target.value })} /></label>
-                  <label className="flex flex-col gap-0.5 text-xs text-ink-soft">Volts<input className={cell} type="number" inputMode="decimal" value={c.volts} disabled={disabled} onChange={(e) => setCircuit(i, { volts: e.target.value })} /></label>
-                  <label className="flex flex-col gap-0.5 text-xs text-ink-soft">Breaker A<input className={cell} type="number" inputMode="decimal" value={c.breakerAmps} disabled={disabled} onChange={(e) => setCircuit(i, { breakerAmps: e.target.value })} /></label>
+                <div className="grid grid-cols-[1fr_1fr_auto] items-end gap-2 sm:grid-cols-[1fr_5rem_5rem_auto]">
+                  <label className={`${canEdit ? 'col-span-2' : 'col-span-3'} flex flex-col gap-0.5 text-xs text-ink-soft sm:col-span-1`}>Circuit<input className={cell} value={c.label} disabled={disabled} onChange={(e) => setCircuit(i, { label: e.target.value })} /></label>
                   {canEdit && (
-                    <Button variant="ghost" className="px-2" disabled={disabled} aria-label={`Remove circuit ${c.label}`} onClick={() => setRows((r) => ({ circuits: r.circuits.filter((_, j) => j !== i), fixtures: r.fixtures.map((f) => (f.circuitKey === c.key ? { ...f, circuitKey: '' } : f)) }))}>
+                    <Button variant="ghost" className="px-2 sm:order-last" disabled={disabled} aria-label={`Remove circuit ${c.label}`} onClick={() => setRows((r) => ({ circuits: r.circuits.filter((_, j) => j !== i), fixtures: r.fixtures.map((f) => (f.circuitKey === c.key ? { ...f, circuitKey: '' } : f)) }))}>
                       ×
                     </Button>
                   )}
+                  <label className="flex flex-col gap-0.5 text-xs text-ink-soft">Volts<input className={cell} type="number" inputMode="decimal" value={c.volts} disabled={disabled} onChange={(e) => setCircuit(i, { volts: e.target.value })} /></label>
+                  <label className="flex flex-col gap-0.5 text-xs text-ink-soft">Breaker A<input className={cell} type="number" inputMode="decimal" value={c.breakerAmps} disabled={disabled} onChange={(e) => setCircuit(i, { breakerAmps: e.target.value })} /></label>
                 </div>
                 {load && (
                   <div className="mt-2">
@@ -115,11 +115,16 @@ export function LightingPanel({ episodeId, test, canEdit }: { episodeId: string;
         {rows.fixtures.length === 0 && <p className="text-ink-muted">No fixtures yet.</p>}
         <ul className="flex flex-col gap-2">
           {rows.fixtures.map((f, i) => (
-            <li key={f.key} className="grid grid-cols-[1fr_5rem_3.5rem] items-end gap-2 rounded-md border border-line p-2 sm:grid-cols-[1fr_5rem_3.5rem_9rem_auto]">
-              <label className="flex flex-col gap-0.5 text-xs text-ink-soft">Fixture<input className={cell} value={f.name} disabled={disabled} onChange={(e) => setFixture(i, { name: e.target.value })} /></label>
+            <li key={f.key} className="grid grid-cols-[1fr_1fr_auto] items-end gap-2 rounded-md border border-line p-2 sm:grid-cols-[1fr_5rem_3.5rem_9rem_auto]">
+              <label className={`${canEdit ? 'col-span-2' : 'col-span-3'} flex flex-col gap-0.5 text-xs text-ink-soft sm:col-span-1`}>Fixture<input className={cell} value={f.name} disabled={disabled} onChange={(e) => setFixture(i, { name: e.target.value })} /></label>
+              {canEdit && (
+                <Button variant="ghost" className="px-2 sm:order-last" disabled={disabled} aria-label={`Remove fixture ${f.name}`} onClick={() => setRows((r) => ({ ...r, fixtures: r.fixtures.filter((_, j) => j !== i) }))}>
+                  ×
+                </Button>
+              )}
               <label className="flex flex-col gap-0.5 text-xs text-ink-soft">Watts<input className={cell} type="number" inputMode="decimal" value={f.watts} disabled={disabled} onChange={(e) => setFixture(i, { watts: e.target.value })} /></label>
               <label className="flex flex-col gap-0.5 text-xs text-ink-soft">Qty<input className={cell} type="number" inputMode="numeric" value={f.quantity} disabled={disabled} onChange={(e) => setFixture(i, { quantity: e.target.value })} /></label>
-              <label className="col-span-2 flex flex-col gap-0.5 text-xs text-ink-soft sm:col-span-1">
+              <label className="col-span-3 flex flex-col gap-0.5 text-xs text-ink-soft sm:col-span-1">
                 On circuit
                 <select className={cell} value={f.circuitKey} disabled={disabled} onChange={(e) => setFixture(i, { circuitKey: e.target.value })}>
                   <option value="">not assigned</option>
@@ -130,11 +135,6 @@ export function LightingPanel({ episodeId, test, canEdit }: { episodeId: string;
                   ))}
                 </select>
               </label>
-              {canEdit && (
-                <Button variant="ghost" className="px-2" disabled={disabled} aria-label={`Remove fixture ${f.name}`} onClick={() => setRows((r) => ({ ...r, fixtures: r.fixtures.filter((_, j) => j !== i) }))}>
-                  ×
-                </Button>
-              )}
             </li>
           ))}
         </ul>
