@@ -166,6 +166,7 @@ function EpisodeView({ episode }: { episode: EpisodeDetail }) {
       </header>
       <EpisodeTabs episodeId={episode.id} channelId={episode.channelId} />
       <Panel title="Activity">
+        <p className="-mt-2 mb-2 text-xs text-ink-muted">Times in the channel’s zone, {timeZone}.</p>
         <ActivityList entries={episode.activity} timeZone={timeZone} />
       </Panel>
       {editing && <EditEpisodeDialog episode={episode} onClose={() => setEditing(false)} />}
