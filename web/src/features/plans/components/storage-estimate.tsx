@@ -49,7 +49,7 @@ export function StorageEstimate({ test }: { test: TestDto }) {
         <p className="pb-2 tabular-nums" aria-live="polite">
           {bytes !== null && linkOk ? (
             <>
-              Upload: <span className="font-semibold">{formatDuration(uploadSeconds(bytes, linkMbps))}</span>
+              Upload: <span className="font-semibold whitespace-nowrap">{formatDuration(uploadSeconds(bytes, linkMbps))}</span>
             </>
           ) : null}
         </p>
