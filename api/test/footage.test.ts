@@ -41,7 +41,8 @@ async function settled(client: Client, uploadId: string): Promise<FootageDto> {
 
 beforeAll(async () => {
   work = await mkdtemp(join(tmpdir(), 'midgray-footage-'));
-  ctx = await startTestApp({ env: { STORAGE_DIR: join(work, 'storage') } });
+  // Its own job queue and storage: no other test file's worker takes these jobs.
+  ctx = await startTestApp({ env: { STORAGE_DIR: join(work, 'storage'), JOBS_SCHEMA: 'footage_api_test' } });
   await ctx.built.startWorkers();
   server = ctx.app.listen(0, '127.0.0.1');
   await new Promise((r) => server.once('listening', r));

@@ -34,6 +34,8 @@ let bigSha: string;
 const children: ChildProcess[] = [];
 
 const uploadEnv = () => ({
+  // Its own job queue: other test files keep their files elsewhere, so their workers must not take these jobs.
+  JOBS_SCHEMA: 'uploads_api_test',
   STORAGE_DIR: storage,
   UPLOAD_MAX_BYTES: String(MAX_BYTES),
   UPLOAD_MAX_OPEN_BYTES_PER_USER: String(1024 * MiB),
