@@ -6,7 +6,7 @@ export default defineConfig({
   test: {
     projects: [
       { test: { name: 'shared', include: ['shared/src/**/*.test.ts'], environment: 'node' } },
-      { test: { name: 'db', include: ['db/src/**/*.test.ts'], environment: 'node' } },
+      { test: { name: 'db', include: ['db/src/**/*.test.ts'], environment: 'node', testTimeout: 120_000, hookTimeout: 60_000 } },
       {
         test: {
           name: 'api',
