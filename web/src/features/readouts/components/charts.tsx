@@ -32,7 +32,15 @@ function CurveChart({ title, summary, rows, axis, xTicks, yLabel, yUnit = '', li
   const formatX = (x: number) => (axis === 'iso' ? String(xToIso(x)) : formatStopsShort(x));
   return (
     <figure className="flex min-w-0 flex-col gap-1">
-      <figcaption className="text-sm font-semibold">{title}</figcaption>
+      <figcaption className="text-sm font-semibold">
+        {title}
+        {threshold && (
+          <span className="ml-2 inline-flex items-center gap-1 text-xs font-normal text-danger">
+            <span aria-hidden="true" className="inline-block w-5 border-t-2 border-dashed border-danger" />
+            {threshold.label}
+          </span>
+        )}
+      </figcaption>
       <div role="img" aria-label={`${title}. ${summary}`} className="h-60 w-full min-w-0">
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={rows} margin={{ top: 8, right: 12, bottom: 18, left: 4 }}>
@@ -44,7 +52,8 @@ function CurveChart({ title, summary, rows, axis, xTicks, yLabel, yUnit = '', li
               ticks={xTicks}
               tickFormatter={formatX}
               tick={{ fontSize: 11, fill: '#4a4a46' }}
-              interval={0}
+              interval="preserveStartEnd"
+              minTickGap={6}
               label={{ value: axis === 'iso' ? 'ISO (log₂ scale: one stop per step)' : 'Stop offset from the reference', position: 'insideBottom', offset: -10, fontSize: 11, fill: '#5f5f5a' }}
             />
             <YAxis tick={{ fontSize: 11, fill: '#4a4a46' }} width={44} label={{ value: yLabel, angle: -90, position: 'insideLeft', fontSize: 11, fill: '#5f5f5a', dy: 40 }} />
@@ -53,7 +62,7 @@ function CurveChart({ title, summary, rows, axis, xTicks, yLabel, yUnit = '', li
               formatter={(value, name) => [value === null || value === undefined ? '—' : `${formatNumber(Number(value), digits)}${yUnit}`, name]}
             />
             {lines.length > 1 && <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 12 }} />}
-            {threshold && <ReferenceLine y={threshold.value} stroke="#a3221b" strokeDasharray="5 4" label={{ value: threshold.label, position: 'insideTopRight', fontSize: 11, fill: '#a3221b' }} />}
+            {threshold && <ReferenceLine y={threshold.value} stroke="#a3221b" strokeDasharray="5 4" ifOverflow="extendDomain" />}
             {lines.map((l) => (
               <Line key={l.key} dataKey={l.key} name={l.name} stroke={l.colour} strokeWidth={2} strokeDasharray={l.dashed ? '6 4' : undefined} dot={{ r: 3 }} connectNulls isAnimationActive={false} />
             ))}
