@@ -14,7 +14,7 @@ import { dirname, join, resolve } from 'node:path';
 import { planSteps, specSheetDraftsFor, type ReadoutParams, type ReadoutRegion, type TestKind } from '@midgray/shared';
 import { syntheticChartLayout, synthChartFrame, type Frame } from '../../api/src/modules/readouts/measure/index.ts';
 import { framePreview, noiseFigures, recoveryFigures, softwareVersion } from '../../api/src/modules/readouts/readout-figures.ts';
-import { Activity, Episode, EpisodeGear, Footage, Readout, SpecSheetLine, Test, TestStep } from '../src/index.ts';
+import { Activity, Episode, EpisodeGear, Footage, PublishSlot, Readout, SpecSheetLine, Test, TestStep } from '../src/index.ts';
 import type { DemoContext, DemoStep } from './demo.ts';
 
 const W = 480;
@@ -355,6 +355,21 @@ export const demoReadouts: DemoStep = async (ctx) => {
   );
   ctx.episodes.baseline = episode.id;
   for (const g of ['k7', 'zoom']) await EpisodeGear.create({ episodeId: episode.id, gearId: ctx.gear[g] }, { transaction });
+  // It went out eight weeks ago on an approved slot (17:00 in Berlin, summer time).
+  const published = new Date(+now - 56 * day);
+  await PublishSlot.create(
+    {
+      episodeId: episode.id,
+      startsAt: new Date(Date.UTC(published.getUTCFullYear(), published.getUTCMonth(), published.getUTCDate(), 15, 0)),
+      zone: 'Europe/Berlin',
+      status: 'approved',
+      proposedById: ctx.people['dario.fenwick'],
+      decidedById: ctx.people['noor.halvard'],
+      decidedAt: new Date(+now - 60 * day),
+      createdAt: new Date(+now - 61 * day),
+    },
+    { transaction },
+  );
   await Activity.create({ channelId: ctx.channelId, actorId: ctx.people['ilse.marrow'], subjectType: 'episode', subjectId: episode.id, episodeId: episode.id, action: 'episode.created', toValue: 'plan', details: {} }, { transaction });
 
   const sweep = await shotTest(
