@@ -1,6 +1,6 @@
 // The readout charts (recharts, loaded lazily: this module and the library stay out of the first
 // page). ISO runs along a log2 axis so every stop is the same width; offsets are linear in stops.
-import { CartesianGrid, Legend, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { CartesianGrid, Line, LineChart, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { CompareDto, CurvePoint, TestReadoutsDto } from '@midgray/shared';
 import { SERIES_COLOURS } from '../palette.ts';
 import { formatNumber, formatStopsShort, isoToX, xToIso } from '../readout-format.ts';
@@ -41,7 +41,18 @@ function CurveChart({ title, summary, rows, axis, xTicks, yLabel, yUnit = '', li
           </span>
         )}
       </figcaption>
-      <div role="img" aria-label={`${title}. ${summary}`} className="h-60 w-full min-w-0">
+      {lines.length > 1 && (
+        // An HTML legend wraps on narrow screens instead of covering the plot.
+        <ul className="flex flex-wrap gap-x-4 gap-y-0.5 text-xs text-ink-soft" aria-hidden="true">
+          {lines.map((l) => (
+            <li key={l.key} className="inline-flex items-center gap-1.5">
+              <span className="inline-block w-5 border-t-2" style={{ borderColor: l.colour, borderTopStyle: l.dashed ? 'dashed' : 'solid' }} />
+              {l.name}
+            </li>
+          ))}
+        </ul>
+      )}
+      <div role="img" aria-label={`${title}. ${summary}${lines.length > 1 ? ` Lines: ${lines.map((l) => l.name).join('; ')}.` : ''}`} className="h-60 w-full min-w-0">
         <ResponsiveContainer width="100%" height="100%">
           <LineChart data={rows} margin={{ top: 8, right: 12, bottom: 18, left: 4 }}>
             <CartesianGrid stroke="#e4e4e0" />
@@ -61,7 +72,6 @@ function CurveChart({ title, summary, rows, axis, xTicks, yLabel, yUnit = '', li
               labelFormatter={(x) => (axis === 'iso' ? `ISO ${xToIso(Number(x))}` : `${formatStopsShort(Number(x))} stops`)}
               formatter={(value, name) => [value === null || value === undefined ? '—' : `${formatNumber(Number(value), digits)}${yUnit}`, name]}
             />
-            {lines.length > 1 && <Legend verticalAlign="top" height={24} wrapperStyle={{ fontSize: 12 }} />}
             {threshold && <ReferenceLine y={threshold.value} stroke="#a3221b" strokeDasharray="5 4" ifOverflow="extendDomain" />}
             {lines.map((l) => (
               <Line key={l.key} dataKey={l.key} name={l.name} stroke={l.colour} strokeWidth={2} strokeDasharray={l.dashed ? '6 4' : undefined} dot={{ r: 3 }} connectNulls isAnimationActive={false} />
