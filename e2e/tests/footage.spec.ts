@@ -1,11 +1,11 @@
 // Journeys of the Footage tab: uploading through the dashboard (resumable, over tus), watching
 // progress, and seeing the file verified (browser and server SHA-256 agree) and probed.
 import { execFileSync } from 'node:child_process';
-import { createHash } from 'node:crypto';
-import { mkdirSync, readFileSync } from 'node:fs';
+import { createHash, randomBytes } from 'node:crypto';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from '@playwright/test';
-import { DEMO, expect, signInAs, test } from '../fixtures/app.ts';
+import { allowHttpError, DEMO, expect, signInAs, test } from '../fixtures/app.ts';
 
 /** Id of the demo episode whose title starts with `titleStart`, read from the board API as the signed-in user. */
 async function episodeId(page: Page, titleStart: string) {
@@ -15,6 +15,7 @@ async function episodeId(page: Page, titleStart: string) {
 }
 
 test('A host uploads a clip through the dashboard, watches its progress and sees it verified and probed', async ({ page }, info) => {
+  test.slow(); // a throttled upload, then the checks in the background
   // A 2-second 1280×720 25 fps clip from ffmpeg’s test source (a few MB, so the throttled progress shows).
   const dir = info.outputPath('clips');
   mkdirSync(dir, { recursive: true });
@@ -29,10 +30,10 @@ test('A host uploads a clip through the dashboard, watches its progress and sees
   await expect(page.getByRole('region', { name: 'Upload footage' })).toBeVisible();
   await page.getByLabel('What are these files?').selectOption('camera_original');
 
-  // Slow the upload down so the progress can be seen (2 MB/s).
+  // Slow the upload down so the progress can be seen and paused (256 KiB/s: about ten seconds).
   const cdp = await page.context().newCDPSession(page);
   await cdp.send('Network.enable');
-  await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: 2 * 1024 * 1024 });
+  await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: 256 * 1024 });
 
   await page.locator('.uppy-Dashboard-input').first().setInputFiles(clip);
   // The browser's checksum, computed in a worker, equals the file's.
@@ -45,7 +46,7 @@ test('A host uploads a clip through the dashboard, watches its progress and sees
   await page.getByRole('button', { name: 'Pause', exact: true }).click();
   await expect(status).toContainText(/Paused/);
   await page.getByRole('button', { name: 'Resume', exact: true }).click();
-  await expect(status).toContainText(/Complete/, { timeout: 30_000 });
+  await expect(status).toContainText(/Complete/, { timeout: 45_000 });
   await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
 
   // The table shows the file, then its checks: verified, probed, with both checksums.
@@ -89,4 +90,27 @@ test('An editor picks up a verified file and releases it; filters narrow the tab
   await expect(table.getByRole('columnheader', { name: /Size/ })).toHaveAttribute('aria-sort', 'ascending');
   await page.setViewportSize({ width: 390, height: 844 });
   await page.screenshot({ path: test.info().outputPath('footage-phone.png'), fullPage: true });
+});
+
+test('A host sees a clear message in the dashboard when a file is refused', async ({ page }, info) => {
+  test.slow();
+  allowHttpError('/api/uploads/', 415);
+  const dir = info.outputPath('refused');
+  mkdirSync(dir, { recursive: true });
+  // Bytes that are no video at all, named like a clip: the server reads the first bytes and refuses.
+  const fake = join(dir, 'A009_C001.mov');
+  writeFileSync(fake, Buffer.concat([Buffer.from([0x7f, 0x45, 0x4c, 0x46]), randomBytes(64 * 1024)]));
+  await signInAs(page, DEMO.host);
+  const id = await episodeId(page, 'Field 7 recorder');
+  await page.goto(`/episodes/${id}?tab=footage`);
+  // A text file is refused before it is sent, by its extension.
+  const notes = join(dir, 'notes.txt');
+  writeFileSync(notes, 'not footage');
+  await page.locator('.uppy-Dashboard-input').first().setInputFiles(notes);
+  await expect(page.getByText(/You can only upload: \.mp4/).first()).toBeVisible();
+  await page.locator('.uppy-Dashboard-input').first().setInputFiles(fake);
+  await page.getByRole('button', { name: /^Upload 1 file/ }).click();
+  await expect(page.getByText(/first bytes are not a video container or still image/).first()).toBeVisible({ timeout: 20_000 });
+  // Nothing was kept: the table has no row for it.
+  await expect(page.getByRole('row', { name: /A009_C001\.mov/ })).toHaveCount(0);
 });

@@ -166,7 +166,7 @@ export function createUploadServer(deps: UploadServerDeps) {
       kind: meta.kind,
       originalName: name,
       claimedFormat: claimed,
-      clientSha256: meta.sha256 ?? null,
+      clientSha256: meta.sha256 || null,
     };
     next();
   };

@@ -86,7 +86,8 @@ export const UploadMetadataSchema = z.object({
   stepId: z.union([UuidSchema, z.literal('')]).optional(),
   filename: z.string().min(1, 'The file has no name').max(1024),
   filetype: z.string().max(255).optional(),
-  sha256: Sha256HexSchema.optional(),
+  /** Empty when the browser's worker has not finished yet (the checksum then follows the upload). */
+  sha256: z.union([Sha256HexSchema, z.literal('')]).optional(),
 });
 export type UploadMetadata = z.infer<typeof UploadMetadataSchema>;
 

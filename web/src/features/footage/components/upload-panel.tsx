@@ -62,7 +62,9 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
       id: `footage-${episodeId}`,
       autoProceed: false,
       restrictions: { maxFileSize: maxFileBytes, allowedFileTypes: extensionsForKind('camera_original') },
-      meta: { episodeId, kind: 'camera_original', stepId: '' },
+      meta: { episodeId, kind: 'camera_original', stepId: '', sha256: '' },
+      // Refusals are shown in the dashboard (see upload-error below); log them as warnings, not errors.
+      logger: { debug: () => undefined, warn: (...args: unknown[]) => console.warn(...args), error: (...args: unknown[]) => console.warn(...args) },
     }).use(Tus, {
       endpoint: '/api/uploads',
       // chunkSize left unset: one request per file, resumed from the server's offset when it breaks.
