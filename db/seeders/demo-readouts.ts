@@ -9,7 +9,7 @@
 // The readout engine is pure (frames in, figures out; no database, no HTTP), which is why the
 // seed may import it from the api workspace. Frames are small (480×270) to keep seeding quick.
 import { createHash, randomUUID } from 'node:crypto';
-import { mkdir, writeFile } from 'node:fs/promises';
+import { mkdir, rename, writeFile } from 'node:fs/promises';
 import { dirname, join, resolve } from 'node:path';
 import { planSteps, specSheetDraftsFor, type ReadoutParams, type ReadoutRegion, type TestKind } from '@midgray/shared';
 import { syntheticChartLayout, synthChartFrame, type Frame } from '../../api/src/modules/readouts/measure/index.ts';
@@ -54,10 +54,20 @@ function storageDir(): string {
   return resolve(process.env.STORAGE_DIR ?? '.data/storage');
 }
 
-async function store(key: string, bytes: Buffer) {
+/**
+ * Stores `bytes` under `demo/<sha256>.<ext>` and returns the key. The synthetic frames are the
+ * same on every seed, so content-addressed keys mean seeding again (every test database seeds the
+ * demo) rewrites the same few files instead of piling up copies. Written to a temporary name and
+ * renamed, so a concurrent seed never reads half a file.
+ */
+async function store(bytes: Buffer, ext: 'png' | 'jpg'): Promise<string> {
+  const key = `demo/${createHash('sha256').update(bytes).digest('hex')}.${ext}`;
   const path = join(storageDir(), key);
   await mkdir(dirname(path), { recursive: true });
-  await writeFile(path, bytes);
+  const temporary = `${path}.${randomUUID()}.part`;
+  await writeFile(temporary, bytes);
+  await rename(temporary, path);
+  return key;
 }
 
 async function pngOf(frame: Frame): Promise<Buffer> {
@@ -80,10 +90,8 @@ async function frameGrab(ctx: DemoContext, episodeId: string, stepId: string, na
   const { bytes, preview } = await encoded;
   const sha = createHash('sha256').update(bytes).digest('hex');
   const id = randomUUID();
-  const storageKey = `demo/${id}.png`;
-  const thumbnailKey = `thumbnails/${id}.jpg`;
-  await store(storageKey, bytes);
-  await store(thumbnailKey, preview);
+  const storageKey = await store(bytes, 'png');
+  const thumbnailKey = await store(preview, 'jpg');
   const footage = await Footage.create(
     {
       id,
@@ -125,7 +133,7 @@ interface DemoReadout {
 }
 
 async function readout(ctx: DemoContext, r: DemoReadout) {
-  const row = await Readout.create(
+  await Readout.create(
     {
       channelId: ctx.channelId,
       testId: r.testId,
@@ -137,6 +145,9 @@ async function readout(ctx: DemoContext, r: DemoReadout) {
       params: r.params,
       softwareVersion: softwareVersion(),
       results: r.results,
+      frameKey: await store(r.preview, 'jpg'),
+      referenceFrameKey: r.referencePreview ? await store(r.referencePreview, 'jpg') : null,
+      differenceMapKey: r.differenceMap ? await store(r.differenceMap, 'png') : null,
       requestedBy: ctx.people['dario.fenwick'],
       createdAt: r.at,
       startedAt: r.at,
@@ -144,17 +155,6 @@ async function readout(ctx: DemoContext, r: DemoReadout) {
     },
     { transaction: ctx.transaction },
   );
-  const keys: Record<string, string | null> = { frameKey: `readouts/${row.id}/frame.jpg`, referenceFrameKey: null, differenceMapKey: null };
-  await store(keys.frameKey!, r.preview);
-  if (r.referencePreview) {
-    keys.referenceFrameKey = `readouts/${row.id}/reference.jpg`;
-    await store(keys.referenceFrameKey, r.referencePreview);
-  }
-  if (r.differenceMap) {
-    keys.differenceMapKey = `readouts/${row.id}/difference-map.png`;
-    await store(keys.differenceMapKey, r.differenceMap);
-  }
-  await row.update(keys, { transaction: ctx.transaction });
 }
 
 const baseParams = (region: ReadoutRegion | null): ReadoutParams => ({
