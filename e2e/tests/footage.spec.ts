@@ -6,6 +6,11 @@ import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import type { Page } from '@playwright/test';
 import { allowHttpError, DEMO, expect, signInAs, test } from '../fixtures/app.ts';
+import { checkA11y } from '../fixtures/look.ts';
+import { resetDemo } from '../fixtures/reset.ts';
+
+// The journeys build on each other (upload, then pickup) on a freshly seeded demo.
+test.beforeAll(() => resetDemo());
 
 /** Id of the demo episode whose title starts with `titleStart`, read from the board API as the signed-in user. */
 async function episodeId(page: Page, titleStart: string) {
@@ -56,7 +61,7 @@ test('A host uploads a clip through the dashboard, watches its progress and sees
   await expect(row.getByText('Verified')).toBeVisible({ timeout: 30_000 });
   await expect(row).toContainText('Camera original');
   await expect(row).toContainText('0:02');
-  await row.getByRole('button', { name: 'A007_C003_recorder.mp4' }).click();
+  await row.getByRole('button', { name: 'A007_C003_recorder.mp4', exact: true }).click();
   const probe = page.getByRole('region', { name: 'Probe' });
   await expect(probe).toContainText('1280×720');
   await expect(probe).toContainText('25 fps (25/1)');
@@ -88,6 +93,9 @@ test('An editor picks up a verified file and releases it; filters narrow the tab
   // Sorting by size is announced on the column header.
   await table.getByRole('button', { name: /^Size/ }).click();
   await expect(table.getByRole('columnheader', { name: /Size/ })).toHaveAttribute('aria-sort', 'ascending');
+  await row.getByRole('button', { name: 'A007_C003_recorder.mp4', exact: true }).click();
+  await expect(page.getByRole('region', { name: 'Probe' })).toBeVisible();
+  await checkA11y(page, 'footage tab');
   await page.setViewportSize({ width: 390, height: 844 });
   await page.screenshot({ path: test.info().outputPath('footage-phone.png'), fullPage: true });
 });

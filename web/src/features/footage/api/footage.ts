@@ -9,7 +9,7 @@ export const footageListQueryOptions = (episodeId: string) =>
     queryKey: ['footage', 'list', episodeId],
     queryFn: () => api<FootageList>('GET', `/api/episodes/${episodeId}/footage`),
     // While files upload or wait for their checks, keep the table fresh.
-    refetchInterval: (q) => (q.state.data?.footage.some((f) => f.status === 'receiving' || (f.status === 'received' && !f.checkedAt)) ? 3000 : false),
+    refetchInterval: (q) => (q.state.data?.footage.some((f) => f.status === 'receiving' || (f.status === 'received' && (!f.serverSha256 || (!f.probe && !f.probeError)))) ? 3000 : false),
   });
 
 /** The episode's footage (newest first), its test steps and the server's size limit. */
