@@ -182,7 +182,8 @@ function EpisodeActions({ episode, canEdit, onEdit }: { episode: EpisodeDetail; 
   const here = STAGES.indexOf(episode.stage);
   const doMove = (toStage: Stage, reason?: string) =>
     move.mutate(
-      { episodeId: episode.id, toStage, toIndex: Number.MAX_SAFE_INTEGER, version: episode.version, reason },
+      // The end of the target column: the server clamps the index, the schema caps it at 100 000.
+      { episodeId: episode.id, toStage, toIndex: 100_000, version: episode.version, reason },
       {
         onSuccess: () => toast({ tone: 'success', title: `Moved to ${STAGE_LABELS[toStage]}` }),
         onError: (err) => {
