@@ -51,15 +51,24 @@ function partsFormatter(timeZone: string): Intl.DateTimeFormat {
 /** Offset strings like "+01:00" are accepted by newer Intl versions but are not IANA names. */
 const IANA_NAME_SHAPE = /^[A-Za-z][A-Za-z0-9_+\-]*(\/[A-Za-z0-9_+\-]+)*$/;
 
+/** Remembered answers of isValidTimeZone (bounded: names come from data and forms). */
+const zoneValidity = new Map<string, boolean>();
+
 /** True when `name` is an IANA zone name (or link) this engine knows, e.g. "Europe/Berlin", "UTC". */
 export function isValidTimeZone(name: string): boolean {
   if (typeof name !== 'string' || !IANA_NAME_SHAPE.test(name)) return false;
+  // Building a formatter is the costly part (a board renders hundreds of dates): remember answers.
+  const known = zoneValidity.get(name);
+  if (known !== undefined) return known;
+  let valid: boolean;
   try {
     new Intl.DateTimeFormat('en-US', { timeZone: name });
-    return true;
+    valid = true;
   } catch {
-    return false;
+    valid = false;
   }
+  if (zoneValidity.size < 1000) zoneValidity.set(name, valid);
+  return valid;
 }
 
 /** The engine's spelling of a zone name ("europe/berlin" → "Europe/Berlin"), or null when invalid. */

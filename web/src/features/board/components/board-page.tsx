@@ -16,7 +16,7 @@ import {
   type UniqueIdentifier,
 } from '@dnd-kit/core';
 import { sortableKeyboardCoordinates } from '@dnd-kit/sortable';
-import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useDeferredValue, useEffect, useMemo, useRef, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { canRole, EMPTY_EPISODE_FORM, episodeFormToInput, STAGE_LABELS, STAGES, type Board, type BoardCard, type Stage } from '@midgray/shared';
 import { Button } from '../../../components/ui/button.tsx';
@@ -133,11 +133,13 @@ export function BoardPage() {
   const peopleById = useMemo(() => new Map((data?.people ?? []).map((p) => [p.userId, p])), [data?.people]);
   const ctx: CardContext = useMemo(() => ({ gearById, peopleById, now, timeZone: data?.timeZone ?? channel.timeZone, onMoveTo: requestMove }), [gearById, peopleById, now, data?.timeZone, channel.timeZone, requestMove]);
   const all = useMemo(() => columnsOf(data?.episodes ?? []), [data?.episodes]);
+  // Typing in the search box stays instant: the columns follow at a lower priority.
+  const deferredFilters = useDeferredValue(filters);
   const shown = useMemo(() => {
     const out = {} as Record<Stage, BoardCard[]>;
-    for (const s of STAGES) out[s] = all[s].filter((c) => matches(c, filters, me));
+    for (const s of STAGES) out[s] = all[s].filter((c) => matches(c, deferredFilters, me));
     return out;
-  }, [all, filters, me]);
+  }, [all, deferredFilters, me]);
 
   const cardOf = (id: UniqueIdentifier | undefined) => (id === undefined ? undefined : data?.episodes.find((e) => e.id === id));
 

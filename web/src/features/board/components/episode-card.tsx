@@ -21,7 +21,7 @@ export interface CardContext {
 const MAX_GEAR = 3;
 
 /** The "Move to…" list: the next stage, every earlier stage (back moves say they need a reason) and the column's top. */
-function MoveToSelect({ card, onMoveTo }: { card: BoardCard; onMoveTo: CardContext['onMoveTo'] }) {
+const MoveToSelect = memo(function MoveToSelect({ card, onMoveTo }: { card: BoardCard; onMoveTo: CardContext['onMoveTo'] }) {
   const here = STAGES.indexOf(card.stage);
   return (
     <select
@@ -47,9 +47,13 @@ function MoveToSelect({ card, onMoveTo }: { card: BoardCard; onMoveTo: CardConte
       )}
     </select>
   );
-}
+});
 
-function CardBody({ card, ctx }: { card: BoardCard; ctx: CardContext }) {
+/**
+ * The card's contents, memoised apart from the drag wrapper: dnd-kit re-renders every sortable when
+ * any of them registers or moves, and this keeps those re-renders to the thin wrapper.
+ */
+const CardBody = memo(function CardBody({ card, ctx }: { card: BoardCard; ctx: CardContext }) {
   const gear = useMemo(() => card.gearIds.map((id) => ctx.gearById.get(id)).filter((g): g is BoardGear => !!g), [card.gearIds, ctx.gearById]);
   const host = card.hostId ? ctx.peopleById.get(card.hostId) : undefined;
   const editor = card.editorId ? ctx.peopleById.get(card.editorId) : undefined;
@@ -98,7 +102,7 @@ function CardBody({ card, ctx }: { card: BoardCard; ctx: CardContext }) {
       </div>
     </>
   );
-}
+});
 
 /**
  * One episode on the board. Drag it with the mouse anywhere on the card, or with the keyboard from
