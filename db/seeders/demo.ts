@@ -7,6 +7,7 @@ import { demoTestPlans } from './demo-plans.ts';
 import { demoPublishing } from './demo-publishing.ts';
 import { demoBoard } from './demo-board.ts';
 import { demoReadouts } from './demo-readouts.ts';
+import { demoFootage } from './demo-footage.ts';
 
 /** A step of the demo seed; later features add theirs to DEMO_STEPS. */
 export type DemoStep = (ctx: DemoContext) => Promise<void>;
@@ -93,6 +94,8 @@ DEMO_STEPS.push(demoPublishing);
 DEMO_STEPS.push(demoBoard);
 // After the test plans: measures the K7 sweep they made and adds a measured baseline episode.
 DEMO_STEPS.push(demoReadouts);
+// After the test plans: footage of the K7 sweep's first steps.
+DEMO_STEPS.push(demoFootage);
 
 /** Seeds the demo scenario once; returns false when it was already there. */
 export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<boolean> {

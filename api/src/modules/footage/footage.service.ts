@@ -30,6 +30,8 @@ import { ffprobe, summariseProbe, writeThumbnail } from './probe.ts';
 /** Queue names of the footage jobs. */
 export const FOOTAGE_JOBS = { checksum: 'footage-checksum', probe: 'footage-probe', expire: 'uploads-expire' } as const;
 
+const STORAGE_KEY = /^[a-z]+\/[0-9a-f][0-9a-f-]{31,63}(\.[a-z0-9]{2,4})?$/;
+
 /** Roles that may upload (every role of a channel). */
 export const UPLOAD_ROLES: readonly Role[] = ['host', 'editor', 'producer', 'admin'];
 /** Roles that may pick up footage. */
@@ -40,6 +42,7 @@ export const ASSIGN_ROLES: readonly Role[] = ['producer', 'admin'];
 interface FootageRow {
   id: string;
   upload_id: string | null;
+  storage_key: string;
   channel_id: string;
   episode_id: string;
   step_id: string | null;
@@ -116,7 +119,7 @@ export function settledState(f: { clientSha256: string | null; serverSha256: str
   const reasons: string[] = [];
   if (f.clientSha256 && f.serverSha256 && f.clientSha256 !== f.serverSha256) reasons.push('the SHA-256 computed by the server differs from the one the browser sent: the file changed on the way');
   if (f.probeError) reasons.push(f.probeError);
-  if (f.mismatches?.length) reasons.push(`${f.mismatches.length} value${f.mismatches.length === 1 ? '' : 's'} differ from the spec sheet`);
+  if (f.mismatches?.length) reasons.push(f.mismatches.length === 1 ? '1 value differs from the spec sheet' : `${f.mismatches.length} values differ from the spec sheet`);
   if (reasons.length) return { state: 'flagged', reasons };
   if (f.clientSha256 && f.serverSha256 && f.probeDone) return { state: 'verified', reasons };
   return { state: 'received', reasons };
@@ -140,9 +143,12 @@ export class FootageService {
     this.sequelize = deps.sequelize;
   }
 
-  /** Absolute path of a storage key (keys are made by the server: uploads/<id>, thumbnails/<id>.jpg). */
+  /**
+   * Absolute path of a storage key. Keys are made by the server (uploads/<id>, thumbnails/<id>.jpg,
+   * demo/<sha>.png): a folder word and a hex or uuid name, so no key can leave the storage folder.
+   */
   pathOf(key: string): string {
-    if (!/^(uploads\/[0-9a-f]{32}|thumbnails\/[0-9a-f-]{36}\.jpg)$/.test(key)) throw new AppError('not_found', 'File not found');
+    if (!STORAGE_KEY.test(key)) throw new AppError('not_found', 'File not found');
     return join(this.deps.storageDir, key);
   }
 
@@ -234,7 +240,7 @@ export class FootageService {
     const f = await this.row(footageId);
     if (!f || f.status === 'receiving') return;
     const hash = createHash('sha256');
-    await pipeline(createReadStream(this.pathOf(`uploads/${f.upload_id ?? ''}`), { highWaterMark: 1024 * 1024 }), hash);
+    await pipeline(createReadStream(this.pathOf(f.storage_key), { highWaterMark: 1024 * 1024 }), hash);
     const digest = hash.digest('hex');
     await this.sequelize.query('UPDATE footage SET server_sha256 = :digest, updated_at = now() WHERE id = :id', { replacements: { id: footageId, digest } });
     await this.settle(footageId);
@@ -259,8 +265,8 @@ export class FootageService {
   /** Job: probes the file, compares it with the spec sheet, makes the thumbnail. */
   async probe(footageId: string): Promise<void> {
     const f = await this.row(footageId);
-    if (!f || f.status === 'receiving' || !f.upload_id) return;
-    const path = this.pathOf(`uploads/${f.upload_id}`);
+    if (!f || f.status === 'receiving') return;
+    const path = this.pathOf(f.storage_key);
     let summary: ProbeSummary | null = null;
     let probeError: string | null = null;
     try {
@@ -436,8 +442,8 @@ export class FootageService {
   async fileFor(id: string): Promise<{ root: string; key: string; name: string; size: number }> {
     const f = await this.row(id);
     if (!f) throw new AppError('not_found', 'Footage not found');
-    if (f.status === 'receiving' || !f.upload_id) throw new AppError('conflict', 'This file is still uploading: download it once it has arrived');
-    const key = `uploads/${f.upload_id}`;
+    if (f.status === 'receiving') throw new AppError('conflict', 'This file is still uploading: download it once it has arrived');
+    const key = f.storage_key;
     this.pathOf(key);
     return { root: this.deps.storageDir, key, name: f.original_name, size: Number(f.size_bytes) };
   }

@@ -23,7 +23,9 @@ export function FootageDetails({ f }: { f: Footage }) {
       <section aria-label="Probe">
         <h3 className="mb-1 text-sm font-semibold">Probe</h3>
         {f.probeError && <p className="mb-2 rounded border border-danger/40 bg-danger-soft p-2 text-sm text-danger">{f.probeError}</p>}
-        {!p && !f.probeError && <p className="text-sm text-ink-muted">{f.status === 'receiving' ? 'Read once the upload has finished.' : 'Reading the file…'}</p>}
+        {!p && !f.probeError && (
+          <p className="text-sm text-ink-muted">{f.status === 'receiving' ? 'Read once the upload has finished.' : f.status === 'received' ? 'Reading the file…' : 'This file was not probed.'}</p>
+        )}
         {p && (
           <dl className="text-sm">
             {row('Container', FILE_FORMAT_LABELS[f.format as FileFormat] ?? f.format)}

@@ -119,7 +119,9 @@ export function FootageTable({ footage, episodeId, channelId, me }: { footage: F
                     <tr className="border-t border-line align-top">
                       <td className="max-w-[16rem] px-2 py-2">
                         <button type="button" className="text-left font-semibold text-ink underline-offset-2 hover:underline" aria-expanded={expanded} onClick={() => setOpen(expanded ? null : f.id)}>
-                          <span className="break-all">{f.originalName}</span>
+                          <span id={`footage-name-${f.id}`} className="break-all">
+                            {f.originalName}
+                          </span>
                         </button>
                         <div className="text-xs text-ink-muted">
                           {f.uploader ? `by ${f.uploader.name}, ` : ''}
@@ -161,18 +163,18 @@ export function FootageTable({ footage, episodeId, channelId, me }: { footage: F
                       <td className="px-2 py-2">
                         <div className="flex flex-wrap justify-end gap-1.5">
                           {f.status !== 'receiving' && (
-                            <a className="inline-flex min-h-9 items-center rounded-md border border-line-strong px-3 text-sm font-semibold hover:bg-paper" href={`/api/footage/${f.id}/download`} download>
-                              Download<span className="sr-only"> {f.originalName}</span>
+                            <a className="inline-flex min-h-9 items-center rounded-md border border-line-strong px-3 text-sm font-semibold hover:bg-paper" href={`/api/footage/${f.id}/download`} download aria-describedby={`footage-name-${f.id}`}>
+                              Download
                             </a>
                           )}
                           {canPickUp && f.status !== 'receiving' && !f.holder && (
-                            <Button disabled={busy} onClick={() => pickUp.mutate(f, { onError: fail })}>
-                              Pick up<span className="sr-only"> {f.originalName}</span>
+                            <Button disabled={busy} aria-describedby={`footage-name-${f.id}`} onClick={() => pickUp.mutate(f, { onError: fail })}>
+                              Pick up
                             </Button>
                           )}
                           {f.holder && (mine || canAssign) && (
-                            <Button variant="ghost" disabled={busy} onClick={() => release.mutate(f, { onError: fail })}>
-                              Release<span className="sr-only"> {f.originalName}</span>
+                            <Button variant="ghost" disabled={busy} aria-describedby={`footage-name-${f.id}`} onClick={() => release.mutate(f, { onError: fail })}>
+                              Release
                             </Button>
                           )}
                           {canAssign && f.status !== 'receiving' && holders.data && (
