@@ -11,11 +11,11 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Footage, Readout } from '@midgray/db';
 import type { CompareDto, NoiseResults, ReadoutDto, RecoveryResults, RunReadoutsResultDto, TestDto, TestReadoutsDto } from '@midgray/shared';
 import { Jobs } from '../src/jobs/jobs.ts';
-import { registerReadoutJob } from '../src/modules/readouts/readout-job.ts';
+import { READOUT_STALE_HOURS, registerReadoutJob, sweepStaleReadouts } from '../src/modules/readouts/readout-job.ts';
 import { synthChartFrame, type SynthChartOptions } from '../src/modules/readouts/measure/index.ts';
 import { channelWithTeam, newUser, startTestApp, type Client, type TestContext } from './helpers.ts';
 import { BRACKET_INPUT, ISO_SWEEP_INPUT, makeEpisode } from './plan-fixtures.ts';
-import { pngOf, storageOf } from './readout-fixtures.ts';
+import { pngOf, storageOf, storeFootage } from './readout-fixtures.ts';
 
 const run = promisify(execFile);
 const JOBS_SCHEMA = 'readouts_api_test';
@@ -291,6 +291,19 @@ describe('who may do what', () => {
     // Their own channel cannot reach these tests through the compare page either.
     const theirs = (await outsider.get('/api/auth/me').expect(200)).body.channels[0].id as string;
     await outsider.get(`/api/channels/${theirs}/readouts/compare?tests=${sweep.id},${bracket.id}`).expect(404);
+  });
+
+  it('a readout whose job was lost is closed by the sweep, so the step no longer waits for it', async () => {
+    const iso200 = stepAt(sweep, (s) => s.iso === 200);
+    const footage = await storeFootage(storageOf(ctx), { channelId, episodeId, stepId: null, kind: 'frame_grab', originalName: 'spare.png', format: 'png' }, await chartPng({ seed: 5 }));
+    const lost = await Readout.create({ channelId, testId: sweep.id, stepId: iso200.id, footageId: footage!.id, kind: 'noise', status: 'queued', params: {}, softwareVersion: 'test', createdAt: new Date(Date.now() - (READOUT_STALE_HOURS + 1) * 3_600_000) });
+    const fresh = await Readout.create({ channelId, testId: sweep.id, stepId: iso200.id, footageId: footage!.id, kind: 'noise', status: 'running', params: {}, softwareVersion: 'test', createdAt: new Date(Date.now() - 60_000) });
+    expect(await sweepStaleReadouts(ctx.sequelize)).toBeGreaterThanOrEqual(1);
+    await lost.reload();
+    await fresh.reload();
+    expect([lost.status, fresh.status]).toEqual(['failed', 'running']);
+    expect(lost.error).toMatch(/job was lost/);
+    await fresh.destroy();
   });
 
   it('a readout without a difference map answers 404 with a reason', async () => {

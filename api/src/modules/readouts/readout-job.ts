@@ -11,6 +11,15 @@ import { readoutImageKey, storagePath, writeStored } from './storage.ts';
 
 /** Queue name of the readout job. */
 export const READOUT_QUEUE = 'readout';
+/** Queue of the sweep that closes readouts whose job was lost. */
+export const READOUT_SWEEP_QUEUE = 'readout-sweep';
+/** Every 15 minutes. */
+export const READOUT_SWEEP_CRON = '*/15 * * * *';
+/**
+ * A readout still queued or running this long after it was requested lost its job (the process
+ * died between commit and send, or every retry expired: 3 attempts × 30 min plus delays).
+ */
+export const READOUT_STALE_HOURS = 2;
 
 /** Data of one job. */
 export interface ReadoutJobData {
@@ -26,6 +35,7 @@ export interface ReadoutJobDeps {
 /** What the job module needs of the job queue (api/src/jobs/jobs.ts `Jobs`). */
 export interface ReadoutJobRegistry {
   define<T extends object>(name: string, handler: (data: T) => Promise<void>, opts?: { queue?: object; work?: object }): void;
+  schedule(name: string, cron: string, data?: object): void;
 }
 
 /** A reason a readout cannot be measured, shown to people as it is. */
@@ -123,6 +133,21 @@ export async function markFailed(sequelize: Sequelize, readoutId: string, messag
   });
 }
 
+/**
+ * Marks readouts queued or running for longer than READOUT_STALE_HOURS as failed, so the tab
+ * stops waiting for them and offers a new run. Returns how many were closed.
+ */
+export async function sweepStaleReadouts(sequelize: Sequelize, now = new Date()): Promise<number> {
+  const closed = await sequelize.query<{ id: string }>(
+    `UPDATE readouts SET status = 'failed', finished_at = now(),
+            error = 'The measurement did not finish (its job was lost): run it again'
+      WHERE status IN ('queued', 'running') AND created_at < CAST(:now AS timestamptz) - make_interval(hours => :hours)
+      RETURNING id`,
+    { replacements: { now: now.toISOString(), hours: READOUT_STALE_HOURS }, type: QueryTypes.SELECT },
+  );
+  return closed.length;
+}
+
 /** Defines the readout queue and its handler on `jobs` (workers start with the server's startWorkers()). */
 export function registerReadoutJob(jobs: ReadoutJobRegistry, deps: ReadoutJobDeps) {
   jobs.define<ReadoutJobData>(
@@ -137,4 +162,9 @@ export function registerReadoutJob(jobs: ReadoutJobRegistry, deps: ReadoutJobDep
       work: { batchSize: 1, pollingIntervalSeconds: 1 },
     },
   );
+  jobs.define(READOUT_SWEEP_QUEUE, async () => {
+    const closed = await sweepStaleReadouts(deps.sequelize);
+    if (closed) console.log(`[readouts] closed ${closed} readouts whose job was lost`);
+  });
+  jobs.schedule(READOUT_SWEEP_QUEUE, READOUT_SWEEP_CRON);
 }
