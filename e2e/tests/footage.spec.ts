@@ -122,3 +122,36 @@ test('A host sees a clear message in the dashboard when a file is refused', asyn
   // Nothing was kept: the table has no row for it.
   await expect(page.getByRole('row', { name: /A009_C001\.mov/ })).toHaveCount(0);
 });
+
+test('A host reloads the page in the middle of an upload, adds the file again and it continues where it stopped', async ({ page }, info) => {
+  test.slow();
+  const dir = info.outputPath('clips');
+  mkdirSync(dir, { recursive: true });
+  const clip = join(dir, 'A011_C002_reload.mp4');
+  execFileSync('ffmpeg', ['-v', 'error', '-y', '-f', 'lavfi', '-i', 'testsrc2=size=1280x720:rate=25', '-t', '2', '-c:v', 'libx264', '-preset', 'ultrafast', '-qp', '8', '-pix_fmt', 'yuv420p', clip]);
+  await signInAs(page, DEMO.host);
+  const id = await episodeId(page, 'Field 7 recorder');
+  await page.goto(`/episodes/${id}?tab=footage`);
+  const cdp = await page.context().newCDPSession(page);
+  await cdp.send('Network.enable');
+  await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: 256 * 1024 });
+  await page.locator('.uppy-Dashboard-input').first().setInputFiles(clip);
+  await page.getByRole('button', { name: /^Upload 1 file/ }).click();
+  const table = page.getByRole('table', { name: 'Footage of this episode' });
+  const row = table.getByRole('row', { name: /A011_C002_reload\.mp4/ });
+  // The table shows the file receiving; wait until a good part has arrived, then reload.
+  await expect(row.getByText(/Receiving ([1-9]\d) %/)).toBeVisible({ timeout: 40_000 });
+  const before = Number((await row.getByText(/Receiving \d+ %/).textContent())!.match(/(\d+) %/)![1]);
+  await page.reload();
+  await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
+  await page.locator('.uppy-Dashboard-input').first().setInputFiles(clip);
+  await page.getByRole('button', { name: /^Upload 1 file/ }).click();
+  await expect(page.locator('.uppy-StatusBar')).toContainText(/Complete/, { timeout: 30_000 });
+  // One file, not two: the same upload was continued, and it checks out.
+  await expect(row).toHaveCount(1);
+  await expect(row.getByText('Verified')).toBeVisible({ timeout: 30_000 });
+  const list = await (await page.request.get(`/api/episodes/${id}/footage`)).json();
+  const files = (list.footage as { originalName: string; sizeBytes: number }[]).filter((f) => f.originalName === 'A011_C002_reload.mp4');
+  expect(files).toHaveLength(1);
+  expect(before).toBeGreaterThanOrEqual(10);
+});

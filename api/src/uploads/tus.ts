@@ -7,7 +7,7 @@
 import { randomBytes } from 'node:crypto';
 import { resolve } from 'node:path';
 import { MemoryLocker, Server, type ServerOptions } from '@tus/server';
-import { ERRORS, Metadata, type Locker } from '@tus/utils';
+import { ERRORS, EVENTS, Metadata, type Locker } from '@tus/utils';
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { extensionsForKind, FOOTAGE_KIND_LABELS, fileExtension, fileNameProblem, formatForFileName, KIND_FORMATS, sanitizeFileName, UploadMetadataSchema, type Role } from '@midgray/shared';
@@ -109,6 +109,11 @@ export function createUploadServer(deps: UploadServerDeps) {
     },
   };
   const tus = new Server(options);
+  // While a long PATCH streams in, record the offset about once a second (postReceiveInterval), so
+  // the footage table shows everyone how far an upload got; the file on disk stays the truth.
+  tus.on(EVENTS.POST_RECEIVE, (_stream: unknown, upload: { id: string; offset: number }) => {
+    records.setOffset(upload.id, upload.offset).catch((err: Error) => console.warn('[uploads] offset not recorded:', err.message));
+  });
 
   /** Sends a refusal as the API's JSON error (tus clients show the text; the web app reads the message). */
   const refuse = (next: NextFunction, code: ConstructorParameters<typeof AppError>[0], message: string) => next(new AppError(code, message));

@@ -155,7 +155,8 @@ export class UploadRecords implements KvStore<Upload> {
 
   /** Records how far an upload got (the file on disk stays the truth). */
   async setOffset(id: string, offset: number, transaction?: Transaction) {
-    await this.sequelize.query('UPDATE uploads SET "offset" = :offset, updated_at = now() WHERE id = :id AND completed_at IS NULL', { replacements: { id, offset }, transaction });
+    // Bytes only ever append, so a late progress report never moves the offset back.
+    await this.sequelize.query('UPDATE uploads SET "offset" = GREATEST("offset", :offset), updated_at = now() WHERE id = :id AND completed_at IS NULL', { replacements: { id, offset }, transaction });
   }
 
   async formatOf(id: string): Promise<{ format: string | null; kind: FootageKind; originalName: string; length: number } | undefined> {

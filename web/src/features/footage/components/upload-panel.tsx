@@ -108,8 +108,14 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
         return rest;
       });
     });
-    u.on('upload', () => {
-      setTimeout(() => void qc.invalidateQueries({ queryKey: footageListQueryOptions(episodeId).queryKey }), 800);
+    // While this browser uploads, refresh the table now and then so the row shows how far it got.
+    let lastRefresh = 0;
+    const refresh = () => void qc.invalidateQueries({ queryKey: footageListQueryOptions(episodeId).queryKey });
+    u.on('upload', () => setTimeout(refresh, 800));
+    u.on('upload-progress', () => {
+      if (Date.now() - lastRefresh < 2500) return;
+      lastRefresh = Date.now();
+      refresh();
     });
     u.on('upload-success', (file, response) => {
       if (!file) return;
