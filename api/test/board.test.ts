@@ -3,7 +3,7 @@
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Activity, Episode, EpisodeGear, Gear, SpecSheetLine, Test } from '@midgray/db';
-import { BoardSchema, EpisodeDetailSchema, GearSchema, SPEC_SHEET_LINES, type Board, type Stage } from '@midgray/shared';
+import { BoardSchema, EpisodeDetailSchema, GearSchema, MOVE_INDEX_END, SPEC_SHEET_LINES, type Board, type Stage } from '@midgray/shared';
 import { boardJson, stageFacts } from '../src/modules/episodes/episodes.repository.ts';
 import type { OptionalTables } from '../src/modules/episodes/optional-tables.ts';
 import { channelWithTeam, startTestApp, type Client, type TestContext } from './helpers.ts';
@@ -312,7 +312,9 @@ describe('moving cards', () => {
     expect((await board(team.host, channelId)).episodes.filter((e) => e.stage === 'plan').map((e) => e.title)).toEqual(['D', 'A', 'B', 'C']);
     // Back move of X into the middle of Plan; an index past the end means "last".
     await team.host.post(`/api/episodes/${x.id}/move`, { toStage: 'plan', toIndex: 2, version: 1, reason: 'Plan again' }).expect(200);
-    await team.host.post(`/api/episodes/${plan[0].id}/move`, { toStage: 'plan', toIndex: 99, version: 1 }).expect(200);
+    await team.host.post(`/api/episodes/${plan[0].id}/move`, { toStage: 'plan', toIndex: MOVE_INDEX_END, version: 1 }).expect(200);
+    const tooFar = await team.host.post(`/api/episodes/${plan[1].id}/move`, { toStage: 'plan', toIndex: MOVE_INDEX_END + 1, version: 1 }).expect(400);
+    expect(tooFar.body.error.message).toMatch(/past the end of the column means last/);
     const titles = (await board(team.host, channelId)).episodes.map((e) => `${e.stage}:${e.title}:${e.position}`);
     expect(titles).toEqual(['plan:D:0', 'plan:X:1', 'plan:B:2', 'plan:C:3', 'plan:A:4']);
     expectGapFree(await positions(channelId));

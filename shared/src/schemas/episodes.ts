@@ -10,6 +10,8 @@ export const StageSchema = z.enum(STAGES, { message: `Use a stage: ${STAGES.join
 export const EPISODE_TITLE_MAX = 200;
 export const EPISODE_GEAR_MAX = 30;
 export const MOVE_REASON_MAX = 500;
+/** The largest `toIndex` of a move; any index past a column's end means "last", so this one always does. */
+export const MOVE_INDEX_END = 100_000;
 
 export const EpisodeTitleSchema = z.string().trim().min(1, 'Give the episode a title').max(EPISODE_TITLE_MAX, `Keep the title under ${EPISODE_TITLE_MAX} characters`);
 
@@ -65,7 +67,7 @@ export type UpdateEpisodeInput = z.input<typeof UpdateEpisodeInputSchema>;
  */
 export const MoveEpisodeInputSchema = z.strictObject({
   toStage: StageSchema,
-  toIndex: z.number().int().min(0, 'The index in the column starts at 0').max(100_000),
+  toIndex: z.number().int().min(0, 'The index in the column starts at 0').max(MOVE_INDEX_END, `Use ${MOVE_INDEX_END} or less (anything past the end of the column means last)`),
   version: z.number().int().min(1),
   reason: z.string().trim().max(MOVE_REASON_MAX, `Keep the reason under ${MOVE_REASON_MAX} characters`).optional(),
 });

@@ -2,7 +2,7 @@ import { useSortable } from '@dnd-kit/sortable';
 import { CSS } from '@dnd-kit/utilities';
 import { memo, useMemo, type PointerEventHandler } from 'react';
 import { Link } from 'react-router-dom';
-import { episodeDateFlags, nextKeyDate, STAGE_LABELS, STAGES, type BoardCard, type BoardGear, type BoardPerson, type Stage } from '@midgray/shared';
+import { episodeDateFlags, MOVE_INDEX_END, nextKeyDate, STAGE_LABELS, STAGES, type BoardCard, type BoardGear, type BoardPerson, type Stage } from '@midgray/shared';
 import { Avatar } from '../../../components/ui/avatar.tsx';
 import { ChecklistIcon, FootageIcon, GripIcon } from '../../../components/ui/icons.tsx';
 import { DateFlags, KeyDateLine } from './key-date.tsx';
@@ -33,7 +33,7 @@ const MoveToSelect = memo(function MoveToSelect({ card, onMoveTo }: { card: Boar
         const value = e.target.value;
         e.target.value = '';
         if (value === 'top') onMoveTo(card, card.stage, 0);
-        else if (value) onMoveTo(card, value as Stage, Number.MAX_SAFE_INTEGER);
+        else if (value) onMoveTo(card, value as Stage, MOVE_INDEX_END);
       }}
     >
       <option value="">Move to…</option>

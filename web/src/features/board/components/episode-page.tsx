@@ -7,6 +7,7 @@ import {
   formatInstantInZone,
   gearName,
   GEAR_SOURCE_LABELS,
+  MOVE_INDEX_END,
   nextKeyDate,
   STAGE_LABELS,
   STAGES,
