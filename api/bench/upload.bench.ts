@@ -1,7 +1,8 @@
 /**
  * Upload benchmark (footage "Figures"): a 2 GiB file sent with tus-js-client through the app's tus
  * endpoint on loopback, against writing the same bytes straight to the same disk (a stream copy
- * into the same folder) in the same run. Reports both throughputs, their ratio (target ≥ 0.6), and
+ * into the same folder) in the same run: copy, upload, copy, upload, copy; the fastest of each
+ * counts, so a busy moment on a shared machine does not decide the ratio. Reports both throughputs, their ratio (target ≥ 0.6), and
  * the server's peak resident memory growth during the upload, sampled from /proc/<pid>/status
  * every 20 ms (target < 100 MB: the server streams, never buffers a file).
  * Run: `npx tsx api/bench/upload.bench.ts [GiB]` with DATABASE_URL set (npm run bench does it).
@@ -74,7 +75,8 @@ try {
   let peak = rssBefore;
   const sampler = setInterval(() => (peak = Math.max(peak, rssOf(child.pid!))), 20);
   let uploadUrl = '';
-  const upload = await time(
+  const tusOnce = () =>
+    time(
     () =>
       new Promise<void>((resolve, reject) => {
         const u = new tus.Upload(createReadStream(source), {
@@ -90,12 +92,18 @@ try {
         });
         u.start();
       }),
-  );
+    );
+  // Two uploads, the yardstick between them; on a shared machine the faster of each pair counts.
+  const uploadFirst = await tusOnce();
+  const directBetween = await time(() => directWrite(source, join(dir, 'direct.bin'), SIZE));
+  await rm(join(dir, 'direct.bin'));
+  const uploadSecond = await tusOnce();
+  const upload = Math.min(uploadFirst, uploadSecond);
   clearInterval(sampler);
   peak = Math.max(peak, rssOf(child.pid!));
   const directAfter = await time(() => directWrite(source, join(dir, 'direct.bin'), SIZE));
   await rm(join(dir, 'direct.bin'));
-  const direct = Math.min(directBefore, directAfter);
+  const direct = Math.min(directBefore, directBetween, directAfter);
   const stored = join(storage, 'uploads', uploadUrl.split('/').pop()!);
   const storedSha = await sha256(stored);
 
@@ -103,8 +111,8 @@ try {
   const ratio = direct / upload;
   const growth = peak - rssBefore;
   console.log(`Upload benchmark: ${(SIZE / GiB).toFixed(2)} GiB, node ${process.version}, tus-js-client → @tus/server on loopback`);
-  console.log(`  straight to disk (stream copy, same folder): ${(direct / 1000).toFixed(2)} s, ${mbps(direct)} MB/s (faster of ${(directBefore / 1000).toFixed(2)} s before and ${(directAfter / 1000).toFixed(2)} s after)`);
-  console.log(`  through the app's tus endpoint:              ${(upload / 1000).toFixed(2)} s, ${mbps(upload)} MB/s`);
+  console.log(`  straight to disk (stream copy, same folder): ${(direct / 1000).toFixed(2)} s, ${mbps(direct)} MB/s (fastest of ${[directBefore, directBetween, directAfter].map((t) => (t / 1000).toFixed(2)).join(', ')} s)`);
+  console.log(`  through the app's tus endpoint:              ${(upload / 1000).toFixed(2)} s, ${mbps(upload)} MB/s (faster of ${(uploadFirst / 1000).toFixed(2)}, ${(uploadSecond / 1000).toFixed(2)} s)`);
   console.log(`  ratio tus / direct: ${ratio.toFixed(2)} (target ≥ ${RATIO_TARGET})`);
   console.log(`  server RSS: ${(rssBefore / MB).toFixed(0)} MB before, ${(peak / MB).toFixed(0)} MB peak, growth ${(growth / MB).toFixed(1)} MB (target < ${RSS_TARGET_BYTES / MB} MB)`);
   console.log(`  stored file SHA-256 ${storedSha === sourceSha ? 'equals' : 'DIFFERS FROM'} the source's`);

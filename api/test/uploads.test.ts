@@ -314,6 +314,21 @@ describe('refusals: nothing is stored', () => {
     expect((await footageOfUpload(idOf(path)))!.status).not.toBe('receiving');
   });
 
+  it('when a first PATCH brings fewer bytes than the content check needs, then they wait on disk and the next PATCH decides', async () => {
+    const clip = await makeClip(join(work, 'tiny-first.mp4'), 'testsrc=size=320x240:rate=25', { seconds: 1, args: ['-c:v', 'libx264', '-preset', 'ultrafast'] });
+    const bytes = await import('node:fs/promises').then((fs) => fs.readFile(clip));
+    const created = await create(team.host, meta('tiny-first.mp4'), bytes.length);
+    const path = created.headers.get('location')!;
+    const first = await tusRequest(team.host, 'PATCH', path, { 'Upload-Offset': '0', 'Content-Type': 'application/offset+octet-stream' }, bytes.subarray(0, 3));
+    expect(first.status).toBe(204);
+    expect(first.headers.get('upload-offset')).toBe('3');
+    expect((await UploadRecord.findByPk(idOf(path)))!.format).toBeNull();
+    const rest = await tusRequest(team.host, 'PATCH', path, { 'Upload-Offset': '3', 'Content-Type': 'application/offset+octet-stream' }, bytes.subarray(3));
+    expect(rest.status).toBe(204);
+    expect((await UploadRecord.findByPk(idOf(path)))!.format).toBe('isobmff');
+    expect(await sha256File(join(storage, 'uploads', idOf(path)))).toBe(await sha256File(clip));
+  });
+
   it('when the file name carries a path (traversal), then 400 and nothing is stored', async () => {
     const before = [await countRows(), await filesOnDisk()];
     for (const name of ['../../etc/passwd.mov', '..\\..\\boot.mov', 'clips/../../x.mov', 'bad\u0000name.mov']) {

@@ -7,7 +7,7 @@
 import { createReadStream, createWriteStream } from 'node:fs';
 import { mkdir, open, stat, unlink, writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
-import { Transform, type Readable } from 'node:stream';
+import { Readable } from 'node:stream';
 import { pipeline } from 'node:stream/promises';
 import { FileStore } from '@tus/file-store';
 import { ERRORS, Upload, type KvStore } from '@tus/utils';
@@ -234,7 +234,14 @@ export class FootageUploadStore extends FileStore {
 
   override async write(readable: Readable, id: string, offset: number): Promise<number> {
     const path = this.pathOf(id);
-    const source: Readable | Transform = offset < SNIFF_BYTES ? readable.pipe(await this.contentCheck(id, offset)) : readable;
+    // While the file is shorter than SNIFF_BYTES, look at the first bytes before any is written.
+    let source: Readable = readable;
+    if (offset < SNIFF_BYTES) {
+      const head = await readPrefix(readable, SNIFF_BYTES - offset);
+      await this.checkContent(id, offset, head, readable.readableEnded);
+      if (readable.readableEnded) source = Readable.from(head.length ? [head] : []);
+      else if (head.length) readable.unshift(head);
+    }
     // 1 MiB buffers: fewer write calls for multi-GB bodies; bytesWritten counts what reached the file.
     const out = createWriteStream(path, { flags: 'r+', start: offset, highWaterMark: 1024 * 1024 });
     let received = 0;
@@ -243,10 +250,6 @@ export class FootageUploadStore extends FileStore {
       received = out.bytesWritten;
     } catch (err) {
       received = out.bytesWritten;
-      if (err instanceof UploadRefusal) {
-        await this.remove(id).catch(() => undefined);
-        throw err;
-      }
       // A dropped connection ends the source early; what arrived is on disk and counted.
       if (received === 0) throw ERRORS.FILE_WRITE_ERROR;
     }
@@ -256,14 +259,14 @@ export class FootageUploadStore extends FileStore {
   }
 
   /**
-   * A pass-through that holds back the first bytes until their format is known, then lets them
-   * through or fails the write with a refusal (the upload is removed). Runs while the file has
-   * fewer than SNIFF_BYTES, so a first PATCH with very few bytes is checked on the next one.
+   * Decides the format from the bytes already on disk plus `head` (the start of this request's
+   * body). A refusal removes the upload and fails the request; too few bytes to tell (and not the
+   * whole file) lets them through, to be checked again on the next PATCH.
    */
-  private async contentCheck(id: string, offset: number): Promise<Transform> {
+  private async checkContent(id: string, offset: number, head: Buffer, requestEnded: boolean): Promise<void> {
     const info = await this.records.formatOf(id);
     if (!info) throw ERRORS.FILE_NOT_FOUND;
-    if (info.format) return new Transform({ transform: (c, _e, cb) => cb(null, c) });
+    if (info.format) return;
     let existing = Buffer.alloc(0);
     if (offset > 0) {
       const fh = await open(this.pathOf(id), 'r');
@@ -274,48 +277,16 @@ export class FootageUploadStore extends FileStore {
         await fh.close();
       }
     }
-    const claimed = formatForFileName(info.originalName);
-    const held: Buffer[] = [];
-    let heldBytes = 0;
-    let decided = false;
-    const records = this.records;
-    const decide = async (complete: boolean): Promise<'pass' | 'wait'> => {
-      const head = Buffer.concat([existing, ...held]);
-      const r = sniffFormat(head.subarray(0, SNIFF_BYTES), complete || head.length >= info.length);
-      if (!r.format && r.needMore) return 'wait';
-      const problem = formatProblem(r.format, info.kind, claimed);
-      if (problem) throw new UploadRefusal(415, problem);
-      await records.setFormat(id, r.format!);
-      return 'pass';
-    };
-    return new Transform({
-      transform(chunk: Buffer, _enc, cb) {
-        if (decided) return cb(null, chunk);
-        held.push(chunk);
-        heldBytes += chunk.length;
-        if (offset + heldBytes < SNIFF_BYTES) return cb();
-        decide(false).then(
-          (v) => {
-            decided = v === 'pass';
-            const out = Buffer.concat(held);
-            held.length = 0;
-            cb(null, out);
-          },
-          (err) => cb(err),
-        );
-      },
-      flush(cb) {
-        if (decided || heldBytes === 0) return cb();
-        // The request ended before SNIFF_BYTES: decide on what there is when it is the whole file,
-        // otherwise keep the bytes and check again on the next PATCH.
-        const complete = offset + heldBytes >= info.length;
-        const push = () => {
-          this.push(Buffer.concat(held));
-          cb();
-        };
-        decide(complete).then(push, (err) => cb(err));
-      },
-    });
+    const prefix = Buffer.concat([existing, head]);
+    const complete = prefix.length >= info.length;
+    const r = sniffFormat(prefix.subarray(0, SNIFF_BYTES), complete);
+    if (!r.format && r.needMore && requestEnded) return;
+    const problem = formatProblem(r.format, info.kind, formatForFileName(info.originalName));
+    if (problem) {
+      await this.remove(id).catch(() => undefined);
+      throw new UploadRefusal(415, problem);
+    }
+    await this.records.setFormat(id, r.format!);
   }
 
   /** Size in bytes of an upload's file on disk (its true offset), or null when missing. */
@@ -326,4 +297,39 @@ export class FootageUploadStore extends FileStore {
       return null;
     }
   }
+}
+
+/** Reads at least `bytes` from a stream (fewer when it ends first) without consuming the rest. */
+async function readPrefix(stream: Readable, bytes: number): Promise<Buffer> {
+  const chunks: Buffer[] = [];
+  let n = 0;
+  while (n < bytes) {
+    const chunk = stream.read() as Buffer | null;
+    if (chunk) {
+      chunks.push(chunk);
+      n += chunk.length;
+      continue;
+    }
+    if (stream.readableEnded || stream.destroyed) break;
+    const ended = await new Promise<boolean>((resolve, reject) => {
+      const done = (v: boolean) => () => {
+        stream.off('readable', onReadable);
+        stream.off('end', onEnd);
+        stream.off('error', onError);
+        resolve(v);
+      };
+      const onReadable = done(false);
+      const onEnd = done(true);
+      const onError = (err: Error) => {
+        stream.off('readable', onReadable);
+        stream.off('end', onEnd);
+        reject(err);
+      };
+      stream.once('readable', onReadable);
+      stream.once('end', onEnd);
+      stream.once('error', onError);
+    });
+    if (ended) break;
+  }
+  return Buffer.concat(chunks);
 }
