@@ -136,7 +136,7 @@ test('A host plans an episode on a loaned body under embargo, fills the spec she
   await expect(page.getByText('Highlights come back cleanly in the grade').filter({ visible: true })).toBeVisible();
   await page.getByRole('group', { name: 'Tests of this episode' }).getByRole('button', { name: new RegExp(escape(SWEEP)) }).click();
   await expect(page.getByText('Clean mid-tones, fine grain in the shadows').filter({ visible: true })).toBeVisible();
-  await expect(page.getByText(/^2 of \d+ steps shot/)).toBeVisible();
+  await expect(page.getByText('1 of 4 steps shot')).toBeVisible(); // counted per test
   await checkA11y(page, 'plan tab, steps shot');
   await shoot(page, info, 'steps-shot');
 });
