@@ -54,8 +54,9 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
   const [stepId, setStepId] = useState('');
   const [uppy, setUppy] = useState<FootageUppy | null>(null);
   const [sums, setSums] = useState<Record<string, Checksum>>({});
-  const sumsRef = useRef(sums);
-  sumsRef.current = sums;
+  // The checksums as events change them (React state only mirrors this for display, so a late
+  // event never reads a state that has not re-rendered yet).
+  const live = useRef(new Map<string, Checksum>());
 
   useEffect(() => {
     const u: FootageUppy = new Uppy<FileMeta, Record<string, never>>({
@@ -76,9 +77,15 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
       },
     });
     const hashes = new Map<string, () => void>();
-    const update = (id: string, patch: Partial<Checksum>) => setSums((s) => (s[id] ? { ...s, [id]: { ...s[id], ...patch } } : s));
+    const show = () => setSums(Object.fromEntries(live.current));
+    const update = (id: string, patch: Partial<Checksum>) => {
+      const c = live.current.get(id);
+      if (!c) return;
+      live.current.set(id, { ...c, ...patch });
+      show();
+    };
     const sendIfReady = (id: string) => {
-      const c = sumsRef.current[id];
+      const c = live.current.get(id);
       if (!c?.sha256 || !c.uploadId || c.sent) return;
       update(id, { sent: true });
       sendClientChecksum(c.uploadId, c.sha256)
@@ -86,7 +93,8 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
         .catch((err: Error) => update(id, { error: `Could not send the checksum: ${err.message}` }));
     };
     u.on('file-added', (file: UppyFile<FileMeta, Record<string, never>>) => {
-      setSums((s) => ({ ...s, [file.id]: { name: file.name ?? 'file', size: file.size ?? 0, bytes: 0 } }));
+      live.current.set(file.id, { name: file.name ?? 'file', size: file.size ?? 0, bytes: 0 });
+      show();
       if (!(file.data instanceof File)) return;
       const job = sha256OfFile(file.data, (bytes) => update(file.id, { bytes }));
       hashes.set(file.id, job.cancel);
@@ -96,17 +104,15 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
           // Not started yet: the checksum travels with the upload's metadata.
           const current = u.getFile(file.id);
           if (current && !current.progress.uploadStarted) u.setFileMeta(file.id, { sha256 });
-          queueMicrotask(() => sendIfReady(file.id));
+          sendIfReady(file.id);
         },
         (err: Error) => update(file.id, { error: err.message }),
       );
     });
     u.on('file-removed', (file) => {
       hashes.get(file.id)?.();
-      setSums((s) => {
-        const { [file.id]: _gone, ...rest } = s;
-        return rest;
-      });
+      live.current.delete(file.id);
+      show();
     });
     // While this browser uploads, refresh the table now and then so the row shows how far it got.
     let lastRefresh = 0;
@@ -122,7 +128,7 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
       const uploadId = response.uploadURL?.split('/').pop();
       if (uploadId) {
         update(file.id, { uploadId });
-        queueMicrotask(() => sendIfReady(file.id));
+        sendIfReady(file.id);
       }
       void qc.invalidateQueries({ queryKey: footageListQueryOptions(episodeId).queryKey });
     });
