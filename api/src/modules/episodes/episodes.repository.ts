@@ -13,7 +13,7 @@ const dbOf = (transaction: Transaction) => (transaction as unknown as { sequeliz
 /** ISO-8601 UTC text of a timestamptz column, e.g. 2026-05-02T13:00:00.000Z (stable in JSON). */
 const iso = (col: string) => `to_char(${col} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"HH24:MI:SS.MS"Z"')`;
 
-const STAGE_ORDER = `array_position(ARRAY[${STAGES.map((s) => `'${s}'`).join(',')}]::text[], eps.stage)`;
+const STAGE_ORDER = `array_position(ARRAY[${STAGES.map((s) => `'${s}'`).join(',')}]::text[], e.stage)`;
 
 /** A spec-sheet line is open until it has a value and is ticked as checked on set. */
 const OPEN_LINE = `(btrim(l.value) = '' OR NOT l.checked)`;
@@ -23,35 +23,27 @@ function footageFilter(t: OptionalTables): string {
 }
 
 /**
- * Aggregates per episode of the board's episode set `eps`, one CTE per optional table:
- * footage count, open spec-sheet lines and the live publish slots (proposed or approved).
+ * Per-card aggregates as LATERAL subqueries on the card's own rows: gear ids, footage count, open
+ * spec-sheet lines and the live publish slots. Each follows an index on episode_id (test_id for
+ * the lines), so the cost grows with this channel's cards, not with every channel's rows; and it
+ * is still one statement. Optional tables that do not exist yet give NULL counts and no slots.
  */
-function optionalCtes(t: OptionalTables): { ctes: string[]; joins: string[]; fields: string[] } {
-  const ctes: string[] = [];
-  const joins: string[] = [];
-  const fields: string[] = [];
+function cardAggregates(t: OptionalTables): { joins: string[]; fields: string[] } {
+  const joins = [`LEFT JOIN LATERAL (SELECT COALESCE(json_agg(x.gear_id ORDER BY x.gear_id), '[]'::json) AS ids FROM episode_gear x WHERE x.episode_id = e.id) eg ON true`];
+  const fields = [`'gearIds', eg.ids`];
   if (t.has('footage', 'episode_id')) {
-    ctes.push(`fc AS (SELECT f.episode_id, count(*)::int AS n FROM footage f JOIN eps ON eps.id = f.episode_id WHERE true ${footageFilter(t)} GROUP BY f.episode_id)`);
-    joins.push('LEFT JOIN fc ON fc.episode_id = eps.id');
-    fields.push(`'footageCount', COALESCE(fc.n, 0)`);
+    joins.push(`LEFT JOIN LATERAL (SELECT count(*)::int AS n FROM footage f WHERE f.episode_id = e.id ${footageFilter(t)}) fc ON true`);
+    fields.push(`'footageCount', fc.n`);
   } else fields.push(`'footageCount', NULL`);
   if (t.has('tests', 'id', 'episode_id') && t.has('spec_sheet_lines', 'test_id', 'value', 'checked')) {
-    ctes.push(
-      `sl AS (SELECT t.episode_id, count(*)::int AS n FROM spec_sheet_lines l JOIN tests t ON t.id = l.test_id JOIN eps ON eps.id = t.episode_id
-               WHERE ${OPEN_LINE} GROUP BY t.episode_id)`,
-    );
-    joins.push('LEFT JOIN sl ON sl.episode_id = eps.id');
-    fields.push(`'openSpecLines', COALESCE(sl.n, 0)`);
+    joins.push(`LEFT JOIN LATERAL (SELECT count(*)::int AS n FROM tests t JOIN spec_sheet_lines l ON l.test_id = t.id WHERE t.episode_id = e.id AND ${OPEN_LINE}) sl ON true`);
+    fields.push(`'openSpecLines', sl.n`);
   } else fields.push(`'openSpecLines', NULL`);
   if (hasSlotTable(t)) {
-    ctes.push(
-      `ps AS (SELECT p.episode_id, json_agg(${SLOT_JSON} ORDER BY p.starts_at) AS slots
-                FROM publish_slots p JOIN eps ON eps.id = p.episode_id WHERE p.status IN ('proposed','approved') GROUP BY p.episode_id)`,
-    );
-    joins.push('LEFT JOIN ps ON ps.episode_id = eps.id');
-    fields.push(`'slots', COALESCE(ps.slots, '[]'::json)`);
+    joins.push(`LEFT JOIN LATERAL (SELECT ${slotsJsonAgg(t, 'e.id')} AS slots) ps ON true`);
+    fields.push(`'slots', ps.slots`);
   } else fields.push(`'slots', '[]'::json`);
-  return { ctes, joins, fields };
+  return { joins, fields };
 }
 
 /**
@@ -75,27 +67,20 @@ const SLOT_JSON = `json_build_object('startsAt', ${iso('p.starts_at')}, 'zone', 
  */
 export async function boardJson(sequelize: Sequelize, channelId: string, tables?: OptionalTables): Promise<string | null> {
   const t = tables ?? (await optionalTables(sequelize));
-  const opt = optionalCtes(t);
+  const card = cardAggregates(t);
   const sql = `
-    WITH eps AS (
-      SELECT id, title, stage, position, version, host_id, editor_id, target_publish_week, shoot_date, created_at
-        FROM episodes WHERE channel_id = :channelId AND archived_at IS NULL
-    ), eg AS (
-      SELECT eg.episode_id, json_agg(eg.gear_id ORDER BY eg.gear_id) AS gear_ids
-        FROM episode_gear eg JOIN eps ON eps.id = eg.episode_id GROUP BY eg.episode_id
-    )${opt.ctes.map((c) => `, ${c}`).join('')}
     SELECT json_build_object(
       'channelId', c.id,
       'timeZone', c.time_zone,
       'readAt', ${iso('now()')},
       'episodes', COALESCE((
         SELECT json_agg(json_build_object(
-                 'id', eps.id, 'title', eps.title, 'stage', eps.stage, 'position', eps.position, 'version', eps.version,
-                 'hostId', eps.host_id, 'editorId', eps.editor_id, 'gearIds', COALESCE(eg.gear_ids, '[]'::json),
-                 'shootDate', eps.shoot_date, 'targetPublishWeek', eps.target_publish_week,
-                 ${opt.fields.join(', ')})
-               ORDER BY ${STAGE_ORDER}, eps.position, eps.created_at, eps.id)
-          FROM eps LEFT JOIN eg ON eg.episode_id = eps.id ${opt.joins.join(' ')}), '[]'::json),
+                 'id', e.id, 'title', e.title, 'stage', e.stage, 'position', e.position, 'version', e.version,
+                 'hostId', e.host_id, 'editorId', e.editor_id, 'shootDate', e.shoot_date, 'targetPublishWeek', e.target_publish_week,
+                 ${card.fields.join(', ')})
+               ORDER BY ${STAGE_ORDER}, e.position, e.created_at, e.id)
+          FROM episodes e ${card.joins.join(' ')}
+         WHERE e.channel_id = c.id AND e.archived_at IS NULL), '[]'::json),
       'gear', COALESCE((
         SELECT json_agg(json_build_object(
                  'id', g.id, 'kind', g.kind, 'name', g.make || ' ' || g.model, 'source', g.source, 'archived', g.archived_at IS NOT NULL,
@@ -104,7 +89,7 @@ export async function boardJson(sequelize: Sequelize, channelId: string, tables?
           FROM gear g
          WHERE g.channel_id = c.id
            AND (g.archived_at IS NULL OR EXISTS (
-                 SELECT 1 FROM episode_gear x JOIN eps ON eps.id = x.episode_id WHERE x.gear_id = g.id))), '[]'::json),
+                 SELECT 1 FROM episode_gear x JOIN episodes xe ON xe.id = x.episode_id WHERE x.gear_id = g.id AND xe.archived_at IS NULL))), '[]'::json),
       'people', COALESCE((
         SELECT json_agg(json_build_object('userId', u.id, 'name', u.name, 'role', m.role) ORDER BY u.name, u.id)
           FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.channel_id = c.id), '[]'::json)
