@@ -19,7 +19,10 @@ export async function startFakeSmtp(port: number, mailboxDir: string): Promise<{
       stream.on('data', (c: Buffer) => chunks.push(c));
       stream.on('end', () => {
         const name = `${new Date().toISOString().replace(/[:.]/g, '-')}-${randomUUID()}.eml`;
-        writeFile(join(mailboxDir, name), Buffer.concat(chunks)).then(() => callback(), callback);
+        // mkdir each time: a test may have emptied the mailbox folder while the server runs.
+        mkdir(mailboxDir, { recursive: true })
+          .then(() => writeFile(join(mailboxDir, name), Buffer.concat(chunks)))
+          .then(() => callback(), callback);
       });
     },
   });
