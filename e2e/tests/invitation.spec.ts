@@ -1,4 +1,8 @@
 import { DEMO, expect, signInAs, test } from '../fixtures/app.ts';
+import { resetDemo } from '../fixtures/reset.ts';
+
+// Starts from a freshly seeded demo: earlier specs may have invited the same address.
+test.beforeAll(() => resetDemo());
 
 test('An admin invites a freelancer, the mail arrives, and the invitee signs in with the invited role', async ({ page }) => {
   await signInAs(page, DEMO.admin);
