@@ -13,6 +13,8 @@ test('An admin invites a freelancer, the mail arrives, and the invitee signs in 
   await expect(page.getByText(`Invitation sent to ${DEMO.outsider.email}`)).toBeVisible();
   await expect(page.getByRole('region', { name: 'Open invitations' })).toContainText(DEMO.outsider.email);
   await page.getByRole('button', { name: 'Sign out' }).click();
+  // Sign-out navigates by itself; wait for it so the next navigation is not aborted by it.
+  await expect(page).toHaveURL(/\/sign-in$/);
 
   await page.goto('/mailbox');
   await page.getByRole('button', { name: /Invitation to Lumen Test Bench/ }).click();
