@@ -22,3 +22,4 @@ export * from './schemas/footage.ts';
 export * from './footage-spec.ts';
 export * from './file-names.ts';
 export * from './schemas/readouts.ts';
+export * from './file-slug.ts';

@@ -1,6 +1,6 @@
 // The shot list as CSV: one record per step of every test of an episode, planned settings
 // beside empty "as shot" columns for the set, filled in where a step is already shot.
-import { TEST_KIND_LABELS, formatAngle, formatDensity, formatFNumber, formatSeconds, formatStops, type TestDto } from '@midgray/shared';
+import { TEST_KIND_LABELS, formatAngle, formatDensity, formatFNumber, formatSeconds, formatStops, type TestDto, fileSlug } from '@midgray/shared';
 import { guardFormula, toCsv, type CsvCell } from '../../lib/csv.ts';
 
 export const SHOT_LIST_COLUMNS = [
@@ -65,12 +65,6 @@ export function shotListCsv(tests: TestDto[]): string {
 
 /** Returns a file name for the episode's shot list: letters, digits and dashes only. */
 export function shotListFileName(title: string): string {
-  const slug = title
-    .normalize('NFKD')
-    .replace(/[\u0300-\u036f]/g, '')
-    .toLowerCase()
-    .replace(/[^a-z0-9]+/g, '-')
-    .replace(/^-+|-+$/g, '')
-    .slice(0, 60);
+  const slug = fileSlug(title);
   return `shot-list-${slug || 'episode'}.csv`;
 }

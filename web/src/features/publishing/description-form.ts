@@ -2,6 +2,7 @@
 // Chapter times are typed as text ("1:30"), so the form keeps them as text and converts on the way
 // out; a time that does not parse stays in the form with its error and is left out of the preview.
 import { z } from 'zod';
+import { fileSlug } from '@midgray/shared';
 import {
   CHAPTER_LABEL_MAX,
   DescriptionGearLinkSchema,
@@ -55,12 +56,6 @@ export function partsFromForm(f: DescriptionForm): DescriptionParts {
 
 /** "lumen-k9-noise.txt" from an episode title. */
 export function textFileName(title: string): string {
-  const slug = title
-    .normalize('NFKD')
-    .replace(/[\u0300-\u036f]/g, '')
-    .toLowerCase()
-    .replace(/[^a-z0-9]+/g, '-')
-    .replace(/^-+|-+$/g, '')
-    .slice(0, 60);
+  const slug = fileSlug(title);
   return `${slug || 'description'}.txt`;
 }
