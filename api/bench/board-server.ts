@@ -53,3 +53,4 @@ process.on('message', (m: { type: string }) => {
   if (m.type === 'counts') process.send!({ type: 'counts', statements, sequelizeStatements });
 });
 process.on('disconnect', () => process.exit(0));
+process.on('SIGTERM', () => process.exit(0));

@@ -1,7 +1,9 @@
 /**
  * Board benchmark (issue 3, "Tests and figures"): GET /api/channels/:id/board on loopback with
  * autocannon at 20 connections, for a channel of 10 and of 1,000 episodes (each with gear, a test
- * with its 19 spec-sheet lines, footage and publish slots, all invented). Prints requests/s, p50,
+ * with its 19 spec-sheet lines, footage and publish slots, all invented), as the board page asks
+ * for it (the first 20 cards of each column with every column's counts), and once with a title
+ * search and the person filter (the filters run in the same statement). Prints requests/s, p50,
  * p95 and p99 latency, SQL statements per request, and the ratio to two floors measured in the same
  * run: GET /api/health (no session, one `SELECT 1`) and GET /api/channels/:id (signed in, one
  * membership lookup). Target: p95 < 50 ms at 1,000 episodes, and the same statement count at 10
@@ -44,7 +46,7 @@ interface Server {
 /** Starts the app (board-server.ts) in a child process; `env` adds to its environment. */
 async function startServer(env: Record<string, string> = {}): Promise<Server> {
   const child = fork(join(here, 'board-server.ts'), [], {
-    execArgv: ['--import', 'tsx'],
+    execArgv: ['--import', 'tsx', ...(process.env.BENCH_CPU_PROF ? ['--cpu-prof', `--cpu-prof-dir=${process.env.BENCH_CPU_PROF}`] : [])],
     env: { ...process.env, DATABASE_URL: url, ...env },
     stdio: ['ignore', 'inherit', 'inherit', 'ipc'],
   });
@@ -94,6 +96,8 @@ async function signIn(): Promise<{ userId: string; csrf: string }> {
 // ---------------------------------------------------------------------------------------------------
 // Seed: a channel with `count` episodes spread over the six stages
 
+const hostOf = new Map<string, string>();
+
 async function seededChannel(count: number, csrf: string): Promise<string> {
   const res = await fetch(`${base}/api/channels`, { method: 'POST', headers: { cookie, 'content-type': 'application/json', 'x-csrf-token': csrf }, body: JSON.stringify({ name: `Bench ${count}`, timeZone: 'Europe/Berlin' }) });
   if (res.status !== 201) throw new Error(`channel not created: ${res.status} ${await res.text()}`);
@@ -130,6 +134,8 @@ async function seededChannel(count: number, csrf: string): Promise<string> {
            SELECT id, now() + ((i % 20) || ' days')::interval, 'America/New_York',
                   CASE WHEN stage = 'approval' THEN 'proposed' ELSE 'approved' END, CASE WHEN stage = 'approval' THEN NULL ELSE now() END
              FROM made WHERE stage IN ('approval', 'scheduled', 'live')`);
+  const [{ host }] = await db.query<{ host: string }>(`SELECT user_id AS host FROM memberships WHERE channel_id = :c AND role = 'host'`, { replacements: { c: channelId }, type: QueryTypes.SELECT });
+  hostOf.set(channelId, host);
   const [{ n }] = await db.query<{ n: number }>(`SELECT count(*)::int AS n FROM episodes WHERE channel_id = :c`, { replacements: { c: channelId }, type: QueryTypes.SELECT });
   if (n !== count) throw new Error(`seeded ${n} episodes, wanted ${count}`);
   return channelId;
@@ -223,6 +229,7 @@ try {
     await measure('floor: channel (signed in)', `/api/channels/${small}`, true),
     await measure('board, 10 episodes', `/api/channels/${small}/board`, true),
     await measure('board, 1,000 episodes', `/api/channels/${large}/board`, true),
+    await measure('board, 1,000, search+person', `/api/channels/${large}/board?q=latitude+body+1&personId=${hostOf.get(large)}`, true),
   ];
   // The same two board reads on a second app process whose board reads are not collapsed.
   const plain = await startServer({ BENCH_NO_COALESCING: '1' });
@@ -252,6 +259,7 @@ try {
     );
   }
   const [, , b10, b1000] = rows;
+  console.log('The board sends the first 20 cards of each column (at most 120) and every column\'s counts; "Show more" asks for more.');
   console.log('');
   console.log('SQL/req: statements of one request sent alone to the idle app (fewest of 3 tries), session store included;');
   console.log('"of which ORM": those sent through Sequelize (sign-in lookup, membership, the board statement).');

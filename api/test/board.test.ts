@@ -3,7 +3,7 @@
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Activity, Episode, EpisodeGear, Gear, SpecSheetLine, Test } from '@midgray/db';
-import { BoardSchema, EpisodeDetailSchema, GearSchema, MOVE_INDEX_END, SPEC_SHEET_LINES, type Board, type Stage } from '@midgray/shared';
+import { BOARD_COLUMN_PAGE, BoardQuerySchema, BoardSchema, EpisodeDetailSchema, GearSchema, MOVE_INDEX_END, SPEC_SHEET_LINES, type Board, type Stage } from '@midgray/shared';
 import { boardJson, stageFacts } from '../src/modules/episodes/episodes.repository.ts';
 import type { OptionalTables } from '../src/modules/episodes/optional-tables.ts';
 import { channelWithTeam, startTestApp, type Client, type TestContext } from './helpers.ts';
@@ -31,8 +31,8 @@ async function testWithLines(episodeId: string, name: string, empty: string[] = 
   return t;
 }
 
-async function board(c: Client, channelId: string): Promise<Board> {
-  const res = await c.get(`/api/channels/${channelId}/board`).expect(200);
+async function board(c: Client, channelId: string, query = ''): Promise<Board> {
+  const res = await c.get(`/api/channels/${channelId}/board${query}`).expect(200);
   expect(res.headers['content-type']).toMatch(/application\/json/);
   return BoardSchema.parse(res.body);
 }
@@ -101,7 +101,7 @@ describe('the board', () => {
       const before = options.logging;
       options.logging = (s: string) => void sql.push(s);
       try {
-        const data = await board(team.host, channelId);
+        const data = await board(team.host, channelId, '?limit=1000');
         return { queries: sql.length, cards: data.episodes.length, sql };
       } finally {
         options.logging = before;
@@ -117,6 +117,64 @@ describe('the board', () => {
     expect(large.queries, large.sql.join('\n')).toBe(small.queries);
     // Signed-in user, membership, and the board statement itself.
     expect(small.queries).toBeLessThanOrEqual(3);
+  });
+
+  it('sends the first cards of each column with every column’s counts, and more of a column on request', async () => {
+    const { channelId, team } = await channelWithTeam(ctx);
+    await place(channelId, 'plan', Array.from({ length: 45 }, (_, i) => `Plan ${i}`));
+    await place(channelId, 'grade', ['Grade 0', 'Grade 1', 'Grade 2']);
+    const first = await board(team.editor, channelId);
+    expect(first.episodes.filter((e) => e.stage === 'plan').map((e) => e.position)).toEqual(Array.from({ length: BOARD_COLUMN_PAGE }, (_, i) => i));
+    expect(first.episodes.filter((e) => e.stage === 'grade').map((e) => e.title)).toEqual(['Grade 0', 'Grade 1', 'Grade 2']);
+    expect(first.columns).toEqual({ plan: { total: 45, matching: 45 }, shoot: { total: 0, matching: 0 }, grade: { total: 3, matching: 3 }, approval: { total: 0, matching: 0 }, scheduled: { total: 0, matching: 0 }, live: { total: 0, matching: 0 } });
+    const more = await board(team.editor, channelId, '?show=plan:40');
+    expect(more.episodes.filter((e) => e.stage === 'plan').map((e) => e.title)).toEqual(Array.from({ length: 40 }, (_, i) => `Plan ${i}`));
+    const few = await board(team.editor, channelId, '?limit=2&show=plan:3');
+    expect(few.episodes.map((e) => e.title)).toEqual(['Plan 0', 'Plan 1', 'Plan 2', 'Grade 0', 'Grade 1']);
+    expect(few.columns.plan).toEqual({ total: 45, matching: 45 });
+  });
+
+  it('filters on title words, gear, person and “mine”, keeping each card’s place in its whole column', async () => {
+    const { channelId, team } = await channelWithTeam(ctx);
+    const k9 = await Gear.create({ channelId, kind: 'body', make: 'Korvala', model: 'K9 Cine', source: 'loaner' });
+    const eps = await place(channelId, 'plan', ['K9 noise floor', 'Prime 50 flare', 'k9 LATITUDE test', '100% crop_test', '100 percent crop']);
+    await EpisodeGear.create({ episodeId: eps[1].id, gearId: k9.id });
+    await eps[2].update({ hostId: team.host.userId });
+    await eps[4].update({ editorId: team.editor.userId });
+    const titles = (b: Board) => b.episodes.map((e) => `${e.title}@${e.position}`);
+
+    // Every word must appear, in any case; % and _ are literal characters, not patterns.
+    const words = await board(team.producer, channelId, `?q=${encodeURIComponent('  latitude   K9 ')}`);
+    expect(titles(words)).toEqual(['k9 LATITUDE test@2']);
+    expect(words.columns.plan).toEqual({ total: 5, matching: 1 });
+    expect(titles(await board(team.producer, channelId, `?q=${encodeURIComponent('100%')}`))).toEqual(['100% crop_test@3']);
+    expect(titles(await board(team.producer, channelId, `?q=${encodeURIComponent('t_c')}`))).toEqual([]);
+    expect(titles(await board(team.producer, channelId, `?gearId=${k9.id}`))).toEqual(['Prime 50 flare@1']);
+    expect(titles(await board(team.producer, channelId, `?personId=${team.editor.userId}`))).toEqual(['100 percent crop@4']);
+    expect(titles(await board(team.host, channelId, '?mine=true'))).toEqual(['k9 LATITUDE test@2']);
+    expect(titles(await board(team.editor, channelId, '?mine=true'))).toEqual(['100 percent crop@4']);
+    expect(titles(await board(team.producer, channelId, '?mine=true'))).toEqual([]);
+    // Filters combine.
+    expect(titles(await board(team.producer, channelId, `?q=k9&personId=${team.host.userId}`))).toEqual(['k9 LATITUDE test@2']);
+  });
+
+  it('refuses a malformed board query with a message naming the fix', async () => {
+    const { channelId, team } = await channelWithTeam(ctx);
+    const refused = async (query: string, message: RegExp) => {
+      const res = await team.host.get(`/api/channels/${channelId}/board${query}`).expect(400);
+      expect(res.body.error.code).toBe('validation_failed');
+      expect(JSON.stringify(res.body.error)).toMatch(message);
+    };
+    await refused('?limit=0', /at least 1 card/);
+    await refused('?limit=abc', /number of cards/);
+    await refused('?limit=5000', /at most 1000 cards/);
+    await refused('?show=review:40', /show=stage:count/);
+    await refused('?show=plan:0', /show=stage:count/);
+    await refused('?mine=yes', /mine=true or mine=false/);
+    await refused('?gearId=not-a-uuid', /gearId/);
+    await refused(`?q=${'x'.repeat(201)}`, /under 200 characters/);
+    await refused('?q=a&q=b', /search once/);
+    await refused('?sort=title', /sort/);
   });
 
   it('leaves out archived episodes and other channels’ episodes', async () => {
@@ -448,7 +506,7 @@ describe('optional tables', () => {
     const [ep] = await place(channelId, 'plan', ['Before the plans feature']);
     await testWithLines(ep.id, 'Sweep', ['Codec']);
     const none: OptionalTables = { has: () => false };
-    const data = BoardSchema.parse(JSON.parse((await boardJson(ctx.sequelize, channelId, none))!));
+    const data = BoardSchema.parse(JSON.parse((await boardJson(ctx.sequelize, channelId, BoardQuerySchema.parse({}), ep.id, none))!));
     expect(data.episodes[0]).toMatchObject({ footageCount: null, openSpecLines: null, slots: [] });
     const facts = await ctx.sequelize.transaction((transaction) => stageFacts(ep.id, transaction, none));
     expect(facts).toMatchObject({ testCount: 0, requiredSpecLinesEmpty: [], cameraOriginalsReceived: 0, hasDescriptionDraft: false, hasProposedSlot: false });

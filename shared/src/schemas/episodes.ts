@@ -107,6 +107,77 @@ export function episodeFormToInput(f: EpisodeForm) {
 }
 
 // ---------------------------------------------------------------------------------------------------
+// Board query: filters and how many cards of each column to send
+
+/** Cards of a column sent at first; "Show more" asks for this many more. */
+export const BOARD_COLUMN_PAGE = 20;
+/** The most cards of one column a single board request sends. */
+export const BOARD_COLUMN_MAX = 1000;
+export const BOARD_SEARCH_MAX = 200;
+/** Search words beyond this many are ignored (each one must appear in the title). */
+export const BOARD_SEARCH_WORDS_MAX = 8;
+
+const ColumnLimitSchema = z.coerce
+  .number({ error: 'A column limit must be a number of cards' })
+  .int('A column limit must be a whole number of cards')
+  .min(1, 'A column limit must be at least 1 card')
+  .max(BOARD_COLUMN_MAX, `A column sends at most ${BOARD_COLUMN_MAX} cards at a time`);
+
+const SHOW_ITEM = new RegExp(`^(${STAGES.join('|')}):(\\d{1,4})$`);
+
+/**
+ * GET /api/channels/:channelId/board?q=&gearId=&personId=&mine=true&limit=20&show=grade:40,live:60
+ * `q`: words that must all appear in the title (any case); `gearId`/`personId`: cards naming that
+ * gear / with that host or editor; `mine`: the caller is host or editor; `limit`: cards per column
+ * (default BOARD_COLUMN_PAGE); `show`: a larger count for named columns ("Show more").
+ */
+export const BoardQuerySchema = z.strictObject({
+  q: z
+    .string({ error: 'Send the search once, as text' })
+    .max(BOARD_SEARCH_MAX, `Keep the search under ${BOARD_SEARCH_MAX} characters`)
+    .optional()
+    .transform((v) => (v ?? '').trim().split(/\s+/).filter(Boolean).slice(0, BOARD_SEARCH_WORDS_MAX).join(' ')),
+  gearId: UuidSchema.optional(),
+  personId: UuidSchema.optional(),
+  mine: z.enum(['true', 'false'], { message: 'Use mine=true or mine=false' }).optional().transform((v) => v === 'true'),
+  limit: ColumnLimitSchema.optional().transform((v) => v ?? BOARD_COLUMN_PAGE),
+  show: z
+    .string({ error: 'Send show once, e.g. show=grade:40,live:60' })
+    .max(200)
+    .optional()
+    .transform((v, ctx) => {
+      const out: Partial<Record<(typeof STAGES)[number], number>> = {};
+      for (const item of (v ?? '').split(',').filter(Boolean)) {
+        const m = SHOW_ITEM.exec(item.trim());
+        const n = m ? Number(m[2]) : NaN;
+        if (!m || n < 1 || n > BOARD_COLUMN_MAX) {
+          ctx.addIssue({ code: 'custom', message: `Use show=stage:count with a stage (${STAGES.join(', ')}) and 1–${BOARD_COLUMN_MAX} cards, e.g. show=grade:40; “${item}” is not that` });
+          return z.NEVER;
+        }
+        out[m[1] as (typeof STAGES)[number]] = n;
+      }
+      return out;
+    }),
+});
+export type BoardQuery = z.output<typeof BoardQuerySchema>;
+export type BoardQueryInput = Partial<Pick<BoardQuery, 'q' | 'gearId' | 'personId' | 'mine' | 'limit' | 'show'>>;
+
+/** The query string of a board request ('' when everything is default), in one canonical order. */
+export function boardSearchParams(query: BoardQueryInput): string {
+  const p = new URLSearchParams();
+  const q = (query.q ?? '').trim();
+  if (q) p.set('q', q);
+  if (query.gearId) p.set('gearId', query.gearId);
+  if (query.personId) p.set('personId', query.personId);
+  if (query.mine) p.set('mine', 'true');
+  if (query.limit && query.limit !== BOARD_COLUMN_PAGE) p.set('limit', String(query.limit));
+  const show = STAGES.filter((s) => query.show?.[s]).map((s) => `${s}:${query.show![s]}`);
+  if (show.length) p.set('show', show.join(','));
+  const text = p.toString();
+  return text ? `?${text}` : '';
+}
+
+// ---------------------------------------------------------------------------------------------------
 // Responses
 
 /** A publish slot as the board and the episode page need it (issue #7 owns slots). */
@@ -149,13 +220,22 @@ export type BoardGear = z.infer<typeof BoardGearSchema>;
 export const BoardPersonSchema = z.object({ userId: UuidSchema, name: z.string(), role: RoleSchema });
 export type BoardPerson = z.infer<typeof BoardPersonSchema>;
 
-/** GET /api/channels/:channelId/board: every card (ordered by stage, then position), gear and people. */
+/** How many episodes a column holds, and how many of them pass the board's filters. */
+export const BoardColumnCountSchema = z.object({ total: z.number().int(), matching: z.number().int() });
+export type BoardColumnCount = z.infer<typeof BoardColumnCountSchema>;
+
+/**
+ * GET /api/channels/:channelId/board: the first cards of each column that pass the filters
+ * (ordered by stage, then position; positions are places in the whole column), every column's
+ * counts, the channel's gear and people.
+ */
 export const BoardSchema = z.object({
   channelId: UuidSchema,
   timeZone: z.string(),
   /** Server time the board was read at (ISO instant). */
   readAt: z.string(),
   episodes: z.array(BoardCardSchema),
+  columns: z.record(StageSchema, BoardColumnCountSchema),
   gear: z.array(BoardGearSchema),
   people: z.array(BoardPersonSchema),
 });

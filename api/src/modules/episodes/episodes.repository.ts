@@ -4,7 +4,7 @@
  * card. Facts owned by later features are read only when their tables exist (optional-tables.ts).
  */
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
-import { STAGES, type ActivityEntry, type ArchivedEpisode, type BoardSlot, type Stage, type StageFacts } from '@midgray/shared';
+import { STAGES, type ActivityEntry, type ArchivedEpisode, type BoardQuery, type BoardSlot, type Stage, type StageFacts } from '@midgray/shared';
 import { optionalTables, type OptionalTables } from './optional-tables.ts';
 
 /** The Sequelize instance a transaction belongs to (set at runtime, missing from Sequelize's types). */
@@ -16,6 +16,7 @@ const iso = (col: string) => `to_char(${col} AT TIME ZONE 'UTC', 'YYYY-MM-DD"T"H
 const STAGE_ORDER = `array_position(ARRAY[${STAGES.map((s) => `'${s}'`).join(',')}]::text[], e.stage)`;
 
 /** A spec-sheet line is open until it has a value and is ticked as checked on set. */
+// Keep in step with the partial index spec_sheet_lines_open_idx (migration 0500), which serves this count.
 const OPEN_LINE = `(btrim(l.value) = '' OR NOT l.checked)`;
 
 function footageFilter(t: OptionalTables): string {
@@ -60,15 +61,64 @@ function slotsJsonAgg(t: OptionalTables, episodeIdSql: string): string {
 const hasSlotTable = (t: OptionalTables) => t.has('publish_slots', 'episode_id', 'starts_at', 'zone', 'status');
 const SLOT_JSON = `json_build_object('startsAt', ${iso('p.starts_at')}, 'zone', p.zone, 'status', p.status)`;
 
+/** A search word with `%`, `_` and the backslash taken literally in a LIKE pattern (ESCAPE backslash). */
+const likeLiteral = (word: string) => word.replace(/[\\%_]/g, (c) => `\\${c}`);
+
 /**
- * The whole board of a channel as JSON text, built by PostgreSQL in one statement: the cards
- * (stage order, then position), the gear they name and the channel's people. Returned as text so
- * the API passes it through without parsing and re-serialising 1,000 cards.
+ * The WHERE conditions of the board's filters, with their replacements. `me` is the caller (for
+ * "mine"). Every search word must appear in the title, in any case.
  */
-export async function boardJson(sequelize: Sequelize, channelId: string, tables?: OptionalTables): Promise<string | null> {
+function boardFilters(query: BoardQuery, me: string): { sql: string; replacements: Record<string, unknown> } {
+  const parts: string[] = [];
+  const replacements: Record<string, unknown> = {};
+  query.q
+    .split(' ')
+    .filter(Boolean)
+    .forEach((word, i) => {
+      parts.push(`e.title ILIKE :w${i} ESCAPE '\\'`);
+      replacements[`w${i}`] = `%${likeLiteral(word)}%`;
+    });
+  if (query.gearId) {
+    parts.push(`EXISTS (SELECT 1 FROM episode_gear fg WHERE fg.episode_id = e.id AND fg.gear_id = :gearId)`);
+    replacements.gearId = query.gearId;
+  }
+  if (query.personId) {
+    parts.push(`(e.host_id = :personId OR e.editor_id = :personId)`);
+    replacements.personId = query.personId;
+  }
+  if (query.mine) {
+    parts.push(`(e.host_id = :me OR e.editor_id = :me)`);
+    replacements.me = me;
+  }
+  return { sql: parts.map((p) => `AND ${p}`).join(' '), replacements };
+}
+
+/**
+ * The board of a channel as JSON text, built by PostgreSQL in one statement: the first cards of
+ * each column that pass the filters (stage order, then position; per-card aggregates only for
+ * those), each column's total and matching counts, the gear cards may name and the channel's
+ * people. Returned as text so the API passes it through without parsing and re-serialising.
+ * Its cost follows the cards sent (at most `limit` per column), not the channel's size.
+ */
+export async function boardJson(sequelize: Sequelize, channelId: string, query: BoardQuery, me: string, tables?: OptionalTables): Promise<string | null> {
   const t = tables ?? (await optionalTables(sequelize));
   const card = cardAggregates(t);
+  const filters = boardFilters(query, me);
+  const limitOf = `CASE f.stage ${STAGES.map((s) => `WHEN '${s}' THEN ${query.show[s] ?? query.limit}`).join(' ')} ELSE ${query.limit} END`;
   const sql = `
+    WITH matching AS (
+      SELECT e.id, e.stage,
+             row_number() OVER (PARTITION BY e.stage ORDER BY e.position, e.created_at, e.id) AS rn
+        FROM episodes e
+       WHERE e.channel_id = :channelId AND e.archived_at IS NULL ${filters.sql}
+    ), shown AS (
+      SELECT f.id FROM matching f WHERE f.rn <= ${limitOf}
+    ), counts AS (
+      SELECT s.stage,
+             (SELECT count(*)::int FROM episodes x WHERE x.channel_id = :channelId AND x.archived_at IS NULL AND x.stage = s.stage) AS total,
+             (SELECT count(*)::int FROM matching f WHERE f.stage = s.stage) AS matching
+        FROM unnest(ARRAY[${STAGES.map((s) => `'${s}'`).join(',')}]::text[]) AS s(stage)
+    )
     SELECT json_build_object(
       'channelId', c.id,
       'timeZone', c.time_zone,
@@ -79,8 +129,8 @@ export async function boardJson(sequelize: Sequelize, channelId: string, tables?
                  'hostId', e.host_id, 'editorId', e.editor_id, 'shootDate', e.shoot_date, 'targetPublishWeek', e.target_publish_week,
                  ${card.fields.join(', ')})
                ORDER BY ${STAGE_ORDER}, e.position, e.created_at, e.id)
-          FROM episodes e ${card.joins.join(' ')}
-         WHERE e.channel_id = c.id AND e.archived_at IS NULL), '[]'::json),
+          FROM shown JOIN episodes e ON e.id = shown.id ${card.joins.join(' ')}), '[]'::json),
+      'columns', (SELECT json_object_agg(stage, json_build_object('total', total, 'matching', matching)) FROM counts),
       'gear', COALESCE((
         SELECT json_agg(json_build_object(
                  'id', g.id, 'kind', g.kind, 'name', g.make || ' ' || g.model, 'source', g.source, 'archived', g.archived_at IS NOT NULL,
@@ -95,7 +145,7 @@ export async function boardJson(sequelize: Sequelize, channelId: string, tables?
           FROM memberships m JOIN users u ON u.id = m.user_id WHERE m.channel_id = c.id), '[]'::json)
     )::text AS board
     FROM channels c WHERE c.id = :channelId`;
-  const row = await sequelize.query<{ board: string }>(sql, { replacements: { channelId }, type: QueryTypes.SELECT, plain: true });
+  const row = await sequelize.query<{ board: string }>(sql, { replacements: { channelId, ...filters.replacements }, type: QueryTypes.SELECT, plain: true });
   return row?.board ?? null;
 }
 

@@ -1,5 +1,6 @@
 import {
   ArchiveEpisodeInputSchema,
+  BoardQuerySchema,
   ChannelParamsSchema,
   CreateEpisodeInputSchema,
   IdParamsSchema,
@@ -25,8 +26,9 @@ export function registerEpisodeRoutes(routes: ApiRoutes, deps: { episodes: Episo
 
   // The board's JSON is built by PostgreSQL and passed through as bytes (see boardJson). Express
   // adds an ETag, so a browser revalidating with If-None-Match gets 304 when nothing changed.
-  routes.get('/channels/:channelId/board', { access: ANY_ROLE, params: ChannelParamsSchema }, async (_req, res) => {
-    res.set('Cache-Control', 'private, no-cache').type('application/json').send(await episodes.boardJson(membershipOf(res).channelId));
+  routes.get('/channels/:channelId/board', { access: ANY_ROLE, params: ChannelParamsSchema, query: BoardQuerySchema }, async (req, res) => {
+    const board = await episodes.boardJson(membershipOf(res).channelId, res.locals.input.query, currentUser(req).id);
+    res.set('Cache-Control', 'private, no-cache').type('application/json').send(board);
   });
   routes.post('/channels/:channelId/episodes', { access: EPISODE_WRITERS, params: ChannelParamsSchema, body: CreateEpisodeInputSchema }, async (req, res) => {
     res.status(201).json(await episodes.create(actor(req, res), res.locals.input.body));

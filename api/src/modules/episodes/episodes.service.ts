@@ -11,6 +11,7 @@ import {
   gearName,
   STAGE_LABELS,
   type ArchivedEpisode,
+  type BoardQuery,
   type CreateEpisodeInput,
   type EpisodeDetail,
   type MoveEpisodeInput,
@@ -43,10 +44,14 @@ export class EpisodesService {
 
   constructor(private readonly sequelize: Sequelize) {}
 
-  /** The board of a channel as UTF-8 JSON bytes (one SQL statement; see boardJson). */
-  async boardJson(channelId: string): Promise<Buffer> {
-    const json = await this.boardReads.get(channelId, async () => {
-      const text = await boardJson(this.sequelize, channelId);
+  /**
+   * The board of a channel as UTF-8 JSON bytes (one SQL statement; see boardJson). Reads with the
+   * same channel and query share a statement; "mine" also keys on the caller.
+   */
+  async boardJson(channelId: string, query: BoardQuery, userId: string): Promise<Buffer> {
+    const key = JSON.stringify([channelId, query.q, query.gearId ?? '', query.personId ?? '', query.mine ? userId : '', query.limit, query.show]);
+    const json = await this.boardReads.get(key, async () => {
+      const text = await boardJson(this.sequelize, channelId, query, userId);
       return text === null ? null : Buffer.from(text, 'utf8');
     });
     if (!json) throw new AppError('not_found', 'Channel not found');

@@ -3,7 +3,7 @@
  * Pure so it is tested without a browser and shared by drag and drop, the "Move to…" control and
  * the optimistic update of the board query.
  */
-import { STAGES, type Board, type BoardCard, type Stage } from '@midgray/shared';
+import { BOARD_COLUMN_PAGE, STAGES, type Board, type BoardCard, type BoardQueryInput, type Stage } from '@midgray/shared';
 
 /** Droppable id of a whole column (so empty columns accept drops); card ids are episode UUIDs. */
 export const COLUMN_PREFIX = 'column:';
@@ -15,14 +15,10 @@ export function stageOfColumnId(id: string): Stage | null {
   return STAGES.includes(stage) ? stage : null;
 }
 
-/**
- * Cards first shown per column; "Show more" adds this many again. Every shown card registers with
- * the drag-and-drop context, whose cost grows faster than the card count, so 500-card boards show
- * 6 × 20 cards at first.
- */
-export const COLUMN_PAGE = 20;
+/** Cards first shown per column; "Show more" asks the server for this many more. */
+export const COLUMN_PAGE = BOARD_COLUMN_PAGE;
 
-/** What the board filters on. */
+/** What the board filters on (the server applies them). */
 export interface BoardFilters {
   search: string;
   gearId: string;
@@ -36,17 +32,9 @@ export function hasFilters(f: BoardFilters): boolean {
   return f.search.trim() !== '' || f.gearId !== '' || f.personId !== '' || f.mine;
 }
 
-/** Whether a card passes the filters; `me` is the signed-in user's id (for "mine"). */
-export function matches(card: BoardCard, f: BoardFilters, me: string): boolean {
-  const words = f.search.trim().toLocaleLowerCase().split(/\s+/).filter(Boolean);
-  if (words.length) {
-    const title = card.title.toLocaleLowerCase();
-    if (!words.every((w) => title.includes(w))) return false;
-  }
-  if (f.gearId && !card.gearIds.includes(f.gearId)) return false;
-  if (f.personId && card.hostId !== f.personId && card.editorId !== f.personId) return false;
-  if (f.mine && card.hostId !== me && card.editorId !== me) return false;
-  return true;
+/** The board request for these filters and per-column card counts ("Show more"). */
+export function boardQueryOf(f: BoardFilters, show: Partial<Record<Stage, number>>): BoardQueryInput {
+  return { q: f.search.trim(), gearId: f.gearId || undefined, personId: f.personId || undefined, mine: f.mine, show };
 }
 
 /** Cards per stage in board order (the API sends them sorted by stage, then position). */
@@ -67,42 +55,49 @@ export interface Move {
 }
 
 /**
- * The board after `move`, as the server will store it: the card leaves its column, lands at
- * `toIndex` of the target column (clamped to its end), both columns are renumbered 0…n−1 and the
- * card's version goes up by one. Unknown cards leave the board unchanged.
+ * The board after `move`, as the server will store it: the card leaves its column (the cards
+ * below move up one place), lands at `toIndex` of the target column (clamped to the column's end;
+ * the cards from there move down one), column counts follow and the card's version goes up by
+ * one. Positions are places in the whole column, so this holds when only its first cards are
+ * loaded or filters hide some. Untouched cards stay the same objects. Unknown cards: no change.
  */
 export function applyMove(board: Board, move: Move): Board {
   const card = board.episodes.find((e) => e.id === move.episodeId);
   if (!card) return board;
-  const cols = columnsOf(board.episodes);
-  cols[card.stage] = cols[card.stage].filter((c) => c.id !== card.id);
-  const target = card.stage === move.toStage ? cols[card.stage] : cols[move.toStage].filter((c) => c.id !== card.id);
-  const index = Math.max(0, Math.min(move.toIndex, target.length));
-  target.splice(index, 0, { ...card, stage: move.toStage, version: card.version + 1 });
-  cols[move.toStage] = target;
-  const touched = new Set<Stage>([card.stage, move.toStage]);
-  const episodes: BoardCard[] = [];
-  for (const s of STAGES) {
-    for (const [i, c] of cols[s].entries()) episodes.push(touched.has(s) && c.position !== i ? { ...c, position: i } : c);
+  const from = card.stage;
+  const to = move.toStage;
+  const targetLength = board.columns[to].total - (from === to ? 1 : 0);
+  const index = Math.max(0, Math.min(move.toIndex, targetLength));
+  const episodes = board.episodes.map((c) => {
+    if (c.id === card.id) return { ...c, stage: to, position: index, version: c.version + 1 };
+    let position = c.position;
+    if (c.stage === from && position > card.position) position--;
+    if (c.stage === to && position >= index) position++;
+    return position === c.position ? c : { ...c, position };
+  });
+  const order = (c: BoardCard) => STAGES.indexOf(c.stage);
+  episodes.sort((a, b) => order(a) - order(b) || a.position - b.position);
+  const columns = { ...board.columns };
+  if (from !== to) {
+    columns[from] = { total: columns[from].total - 1, matching: columns[from].matching - 1 };
+    columns[to] = { total: columns[to].total + 1, matching: columns[to].matching + 1 };
   }
-  return { ...board, episodes };
+  return { ...board, episodes, columns };
 }
 
 /**
- * The index in the FULL target column for a drop: before the card dropped on (`overId` a card id),
- * or at the end (`overId` the column itself). Filters may hide cards, so visible positions are not
- * column positions; the dragged card itself is not counted.
+ * The index in the WHOLE target column for a drop: the place of the card dropped on (so the
+ * dragged card lands before it, or after it when it came from above in the same column), or the
+ * column's end (`overId` the column itself). Cards carry their place in the whole column, so
+ * hidden and not-yet-loaded cards are counted right.
  */
 export function dropIndex(board: Board, activeId: string, toStage: Stage, overId: string | null): number {
-  const column = columnsOf(board.episodes)[toStage].filter((c) => c.id !== activeId);
-  if (!overId || stageOfColumnId(overId)) return column.length;
-  const at = column.findIndex((c) => c.id === overId);
-  if (at < 0) return column.length;
-  // Within the same column, dropping on a card below the start position lands after it (the list shifts up).
   const active = board.episodes.find((e) => e.id === activeId);
+  const end = board.columns[toStage].total - (active?.stage === toStage ? 1 : 0);
+  if (!overId || stageOfColumnId(overId)) return end;
   const over = board.episodes.find((e) => e.id === overId);
-  if (active && over && active.stage === toStage && over.position > active.position) return at + 1;
-  return at;
+  if (!over || over.stage !== toStage) return end;
+  return Math.min(over.position, end);
 }
 
 /** "back" when the target stage is left of the card's stage, "forward" right of it, else "same". */

@@ -3,8 +3,25 @@ import { hasFilters, NO_FILTERS, type BoardFilters } from '../board-model.ts';
 
 const control = 'rounded-md border border-line-strong bg-card px-2.5 py-1.5 text-sm text-ink';
 
-/** Search on titles, gear, person and "mine"; says how many cards show. */
-export function BoardFilterBar({ filters, onChange, gear, people, shown, total }: { filters: BoardFilters; onChange: (f: BoardFilters) => void; gear: BoardGear[]; people: BoardPerson[]; shown: number; total: number }) {
+/** Search on titles, gear, person and "mine"; says how many episodes match. */
+export function BoardFilterBar({
+  filters,
+  onChange,
+  gear,
+  people,
+  matching,
+  total,
+  busy,
+}: {
+  filters: BoardFilters;
+  onChange: (f: BoardFilters) => void;
+  gear: BoardGear[];
+  people: BoardPerson[];
+  matching: number;
+  total: number;
+  /** The board for the current filters is still on its way. */
+  busy: boolean;
+}) {
   return (
     <form role="search" aria-label="Filter the board" className="mb-4 flex flex-wrap items-end gap-2" onSubmit={(e) => e.preventDefault()}>
       <label className="flex min-w-[12rem] flex-1 flex-col gap-1 text-xs font-medium text-ink-soft sm:max-w-xs">
@@ -43,8 +60,8 @@ export function BoardFilterBar({ filters, onChange, gear, people, shown, total }
           Clear filters
         </button>
       )}
-      <p className="self-end py-1.5 text-xs text-ink-muted sm:ml-auto" aria-live="polite">
-        {shown === total ? `${total} episodes` : `Showing ${shown} of ${total} episodes`}
+      <p className="self-end py-1.5 text-xs text-ink-muted sm:ml-auto" aria-live="polite" aria-busy={busy}>
+        {busy ? 'Filtering…' : matching === total ? `${total} episodes` : `${matching} of ${total} episodes match`}
       </p>
     </form>
   );

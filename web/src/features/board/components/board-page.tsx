@@ -16,7 +16,7 @@ import {
   type UniqueIdentifier,
 } from '@dnd-kit/core';
 import { sortableKeyboardCoordinates } from '@dnd-kit/sortable';
-import { useCallback, useDeferredValue, useEffect, useMemo, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { canRole, EMPTY_EPISODE_FORM, episodeFormToInput, STAGE_LABELS, STAGES, type Board, type BoardCard, type Stage } from '@midgray/shared';
 import { Button } from '../../../components/ui/button.tsx';
@@ -24,11 +24,11 @@ import { Dialog } from '../../../components/ui/dialog.tsx';
 import { ErrorNote, Loading, PageHeader } from '../../../components/ui/page.tsx';
 import { useToast } from '../../../components/ui/toast.tsx';
 import { ApiError } from '../../../lib/api-client.ts';
-import { useMe } from '../../auth/api/me.ts';
+import { useDebouncedValue } from '../../../lib/use-debounced-value.ts';
 import { useChannel } from '../../channels/current-channel.tsx';
-import { useBoard, useMoveEpisode } from '../api/board.ts';
+import { boardQueryOptions, useBoard, useMoveEpisode } from '../api/board.ts';
 import { useCreateEpisode } from '../api/episodes.ts';
-import { columnsOf, directionOf, dropIndex, matches, NO_FILTERS, stageOfColumnId, type BoardFilters, type Move } from '../board-model.ts';
+import { boardQueryOf, COLUMN_PAGE, columnsOf, directionOf, dropIndex, NO_FILTERS, stageOfColumnId, type BoardFilters, type Move } from '../board-model.ts';
 import { BoardColumn } from './board-column.tsx';
 import { BoardFilterBar } from './board-filters.tsx';
 import { CardPreview, type CardContext } from './episode-card.tsx';
@@ -77,12 +77,21 @@ const screenReaderInstructions: ScreenReaderInstructions = {
 /** The board: one column per stage, filters, drag and drop, "Move to…", and new episodes. */
 export function BoardPage() {
   const channel = useChannel();
-  const me = useMe().data?.user.id ?? '';
-  const board = useBoard(channel.id);
-  const move = useMoveEpisode(channel.id);
   const toast = useToast();
   const now = useNow();
   const [filters, setFilters] = useState<BoardFilters>(NO_FILTERS);
+  // Cards asked for per column beyond the first page ("Show more"); a new filter starts over.
+  const [show, setShow] = useState<Partial<Record<Stage, number>>>({});
+  const changeFilters = useCallback((f: BoardFilters) => {
+    setFilters(f);
+    setShow({});
+  }, []);
+  // The server filters: typing asks it once the search has rested for a moment.
+  const search = useDebouncedValue(filters.search, 250);
+  const query = useMemo(() => boardQueryOf({ ...filters, search }, show), [filters, search, show]);
+  const board = useBoard(channel.id, query);
+  const move = useMoveEpisode(channel.id, boardQueryOptions(channel.id, query).queryKey);
+  const showMore = useCallback((stage: Stage) => setShow((s) => ({ ...s, [stage]: (s[stage] ?? COLUMN_PAGE) + COLUMN_PAGE })), []);
   const [activeId, setActiveId] = useState<string | null>(null);
   const [pendingBack, setPendingBack] = useState<PendingBackMove | null>(null);
   const [creating, setCreating] = useState(false);
@@ -118,7 +127,7 @@ export function BoardPage() {
     (card: BoardCard, toStage: Stage, toIndex: number) => {
       const current = dataRef.current;
       if (!current) return;
-      const columnLength = current.episodes.filter((e) => e.stage === toStage && e.id !== card.id).length;
+      const columnLength = current.columns[toStage].total - (card.stage === toStage ? 1 : 0);
       const index = Math.min(toIndex, columnLength);
       if (toStage === card.stage && index === card.position) return;
       const m: Move = { episodeId: card.id, toStage, toIndex: index, version: card.version };
@@ -132,14 +141,7 @@ export function BoardPage() {
   const gearById = useMemo(() => new Map((data?.gear ?? []).map((g) => [g.id, g])), [data?.gear]);
   const peopleById = useMemo(() => new Map((data?.people ?? []).map((p) => [p.userId, p])), [data?.people]);
   const ctx: CardContext = useMemo(() => ({ gearById, peopleById, now, timeZone: data?.timeZone ?? channel.timeZone, onMoveTo: requestMove }), [gearById, peopleById, now, data?.timeZone, channel.timeZone, requestMove]);
-  const all = useMemo(() => columnsOf(data?.episodes ?? []), [data?.episodes]);
-  // Typing in the search box stays instant: the columns follow at a lower priority.
-  const deferredFilters = useDeferredValue(filters);
-  const shown = useMemo(() => {
-    const out = {} as Record<Stage, BoardCard[]>;
-    for (const s of STAGES) out[s] = all[s].filter((c) => matches(c, deferredFilters, me));
-    return out;
-  }, [all, deferredFilters, me]);
+  const shown = useMemo(() => columnsOf(data?.episodes ?? []), [data?.episodes]);
 
   const cardOf = (id: UniqueIdentifier | undefined) => (id === undefined ? undefined : data?.episodes.find((e) => e.id === id));
 
@@ -148,7 +150,7 @@ export function BoardPage() {
       justPicked.current = active.id;
       const card = cardOf(active.id);
       if (!card) return;
-      return `Picked up “${card.title}” from ${STAGE_LABELS[card.stage]}, place ${card.position + 1} of ${all[card.stage].length}.`;
+      return `Picked up “${card.title}” from ${STAGE_LABELS[card.stage]}, place ${card.position + 1} of ${data?.columns[card.stage].total ?? card.position + 1}.`;
     },
     onDragOver: ({ active, over }) => {
       // Right after pick-up the card is over its own place: keep the pick-up message audible.
@@ -175,8 +177,9 @@ export function BoardPage() {
 
   const canCreate = canRole(channel.role, 'episode.create');
   const active = cardOf(activeId ?? undefined);
-  const total = data?.episodes.length ?? 0;
-  const visible = STAGES.reduce((n, s) => n + shown[s].length, 0);
+  const total = data ? STAGES.reduce((n, s) => n + data.columns[s].total, 0) : 0;
+  const matching = data ? STAGES.reduce((n, s) => n + data.columns[s].matching, 0) : 0;
+  const refreshing = board.isPlaceholderData;
 
   return (
     <div>
@@ -200,12 +203,12 @@ export function BoardPage() {
       {board.error && <ErrorNote error={board.error} />}
       {data && (
         <>
-          <BoardFilterBar filters={filters} onChange={setFilters} gear={data.gear} people={data.people} shown={visible} total={total} />
+          <BoardFilterBar filters={filters} onChange={changeFilters} gear={data.gear} people={data.people} matching={matching} total={total} busy={refreshing} />
           <DndContext sensors={sensors} collisionDetection={collisionDetection} onDragStart={onDragStart} onDragEnd={onDragEnd} onDragCancel={() => setActiveId(null)} accessibility={{ announcements, screenReaderInstructions }}>
             <div className="relative -mx-4 snap-x snap-mandatory scroll-px-4 overflow-x-auto px-4 pb-3 sm:snap-none" role="region" aria-label="Board columns" tabIndex={-1}>
               <div className="grid auto-cols-[82%] grid-flow-col gap-3 sm:auto-cols-[minmax(13.25rem,1fr)]">
                 {STAGES.map((stage) => (
-                  <BoardColumn key={stage} stage={stage} cards={shown[stage]} total={all[stage].length} ctx={ctx} />
+                  <BoardColumn key={stage} stage={stage} cards={shown[stage]} count={data.columns[stage]} ctx={ctx} onShowMore={showMore} loadingMore={refreshing && !!show[stage]} />
                 ))}
               </div>
             </div>

@@ -24,7 +24,7 @@ import { useToast } from '../../../components/ui/toast.tsx';
 import { ApiError } from '../../../lib/api-client.ts';
 import { browserTimeZone } from '../../../lib/time-zones.ts';
 import { useCurrentChannel } from '../../channels/current-channel.tsx';
-import { useBoard, useMoveEpisode } from '../api/board.ts';
+import { boardQueryOptions, useBoard, useMoveEpisode } from '../api/board.ts';
 import { useArchiveEpisode, useEpisode, useUpdateEpisode } from '../api/episodes.ts';
 import { directionOf } from '../board-model.ts';
 import { formatDay, formatInstant, formatWeek } from '../dates.ts';
@@ -176,7 +176,7 @@ function EpisodeView({ episode }: { episode: EpisodeDetail }) {
 }
 
 function EpisodeActions({ episode, canEdit, onEdit }: { episode: EpisodeDetail; canEdit: boolean; onEdit: () => void }) {
-  const move = useMoveEpisode(episode.channelId);
+  const move = useMoveEpisode(episode.channelId, boardQueryOptions(episode.channelId).queryKey);
   const archive = useArchiveEpisode();
   const toast = useToast();
   const [pending, setPending] = useState<PendingBackMove | null>(null);

@@ -8,6 +8,7 @@ import { useToast } from '../../../components/ui/toast.tsx';
 import { ApiError } from '../../../lib/api-client.ts';
 import { useAddSpecLine, useRemoveSpecLine, useUpdateSpecLine } from '../api/plans.ts';
 
+type FlagName = 'checked' | 'inDescription' | 'required';
 const HINTS = new Map(SPEC_SHEET_LINES.map((d) => [d.key as string, d.hint]));
 
 function LineRow({ episodeId, testId, line, canEdit }: { episodeId: string; testId: string; line: SpecSheetLineDto; canEdit: boolean }) {
@@ -15,6 +16,10 @@ function LineRow({ episodeId, testId, line, canEdit }: { episodeId: string; test
   const update = useUpdateSpecLine(episodeId, testId);
   const remove = useRemoveSpecLine(episodeId, testId);
   const [draft, setDraft] = useState<string | null>(null);
+  // A ticked box shows its new state at once, until the saved line (a new version) or an error comes back;
+  // the cache's own optimistic update lands a tick later, too late for a controlled checkbox.
+  const [flagDraft, setFlagDraft] = useState<{ name: FlagName; value: boolean; version: number } | null>(null);
+  const flagValue = (name: FlagName) => (flagDraft && flagDraft.name === name && flagDraft.version === line.version ? flagDraft.value : line[name]);
   const value = draft ?? line.value;
   const missing = line.required && line.value.trim() === '';
   const onError = (err: unknown) =>
@@ -23,9 +28,24 @@ function LineRow({ episodeId, testId, line, canEdit }: { episodeId: string; test
     if (draft === null || draft === line.value) return setDraft(null);
     update.mutate({ id: line.id, version: line.version, value: draft }, { onError, onSettled: () => setDraft(null) });
   };
-  const flag = (name: 'checked' | 'inDescription' | 'required', label: string) => (
+  const flag = (name: FlagName, label: string) => (
     <label className="flex min-h-9 items-center gap-1.5 text-xs whitespace-nowrap text-ink-soft">
-      <input type="checkbox" className="h-4 w-4" checked={line[name]} disabled={!canEdit || update.isPending} onChange={(e) => update.mutate({ id: line.id, version: line.version, [name]: e.target.checked }, { onError })} aria-label={`${label}: ${line.label}`} />
+      <input
+        type="checkbox"
+        className="h-4 w-4"
+        checked={flagValue(name)}
+        disabled={!canEdit || update.isPending}
+        onChange={(e) => {
+          const value = e.target.checked;
+          setFlagDraft({ name, value, version: line.version });
+          const fail = (err: unknown) => {
+            setFlagDraft(null);
+            onError(err);
+          };
+          update.mutate({ id: line.id, version: line.version, [name]: value }, { onError: fail });
+        }}
+        aria-label={`${label}: ${line.label}`}
+      />
       <span aria-hidden="true">{label}</span>
     </label>
   );
