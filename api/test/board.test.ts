@@ -1,5 +1,6 @@
 // The board, episodes, stage moves and gear (issue 3), against the real PostgreSQL. Stage rules
 // are PRODUCT.md's table; the messages come from shared/src/stages.ts. All names are fictional.
+import fc from 'fast-check';
 import { QueryTypes } from 'sequelize';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Activity, Episode, EpisodeGear, Gear, SpecSheetLine, Test } from '@midgray/db';
@@ -175,6 +176,23 @@ describe('the board', () => {
     await refused(`?q=${'x'.repeat(201)}`, /under 200 characters/);
     await refused('?q=a&q=b', /search once/);
     await refused('?sort=title', /sort/);
+  });
+
+  it('answers any query string with the board or a 400 naming the problem, never a server error (fast-check)', async () => {
+    const { channelId, team } = await channelWithTeam(ctx);
+    await place(channelId, 'plan', ['100% crop_test', 'K9 noise']);
+    const key = fc.constantFrom('q', 'gearId', 'personId', 'mine', 'limit', 'show', '__proto__', 'q[]', 'show[plan]');
+    const value = fc.oneof(fc.string({ maxLength: 30 }), fc.string({ unit: 'grapheme', maxLength: 10 }), fc.constantFrom("' OR 1=1 --", '%', '_', '\\', 'plan:5', 'plan:5,plan:6', 'live:1000', 'true', '20', '-1', '1e9', 'x'.repeat(300)), fc.uuid());
+    await fc.assert(
+      fc.asyncProperty(fc.array(fc.tuple(key, value), { maxLength: 4 }), async (pairs) => {
+        const search = new URLSearchParams(pairs).toString();
+        const res = await team.host.get(`/api/channels/${channelId}/board?${search}`);
+        expect([200, 400], `${search} → ${res.status} ${JSON.stringify(res.body).slice(0, 200)}`).toContain(res.status);
+        if (res.status === 400) expect(res.body.error.message.length).toBeGreaterThan(0);
+        else expect(BoardSchema.parse(res.body).columns.plan.total).toBe(2);
+      }),
+      { numRuns: 80 },
+    );
   });
 
   it('leaves out archived episodes and other channels’ episodes', async () => {
