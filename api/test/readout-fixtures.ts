@@ -4,7 +4,7 @@ import { randomBytes } from 'node:crypto';
 import { join } from 'node:path';
 import sharp from 'sharp';
 import { Footage, Readout } from '@midgray/db';
-import type { ReadoutParams } from '@midgray/shared';
+import { stillReadoutParams, type ReadoutParams } from '@midgray/shared';
 import { noiseFigures, softwareVersion } from '../src/modules/readouts/readout-figures.ts';
 import { synthChartFrame, type Frame } from '../src/modules/readouts/measure/index.ts';
 import { readoutImageKey, writeStored } from '../src/modules/readouts/storage.ts';
@@ -33,19 +33,7 @@ export async function storeFootage(
 }
 
 /** Parameters of a plain noise readout (centre tenth, sRGB, default thresholds). */
-export const NOISE_PARAMS: ReadoutParams = {
-  region: null,
-  grid: null,
-  transfer: 'srgb',
-  transferFrom: 'auto',
-  referenceTransfer: null,
-  frameTimeSeconds: null,
-  referenceFrameTimeSeconds: null,
-  stride: null,
-  snrThresholdDb: 20,
-  deltaEThreshold: 2.5,
-  referenceStepId: null,
-};
+export const NOISE_PARAMS: ReadoutParams = stillReadoutParams();
 
 /**
  * An episode with two ISO sweep tests made by `host`; the first step of the first has a frame grab

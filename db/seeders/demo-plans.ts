@@ -51,6 +51,23 @@ const K9_LINES = {
 };
 
 /** Test plans of the demo episodes (see file comment). */
+/** Spec-sheet values of the K7 re-test's sweep (firmware 3.1); the firmware 3.0 baseline shares most of them. */
+export const K7_SWEEP_LINES: Record<string, string> = {
+  body: 'Korvala K7 Mark II, firmware 3.1',
+  lens: 'Brightwell Zoom 24-70 T2.9 at 50 mm, T2.9',
+  resolution: '3840×2160 (UHD)',
+  white_balance: '4300 K',
+  gamma_profile: 'Korvala Log 2',
+  colour_space: 'Korvala Wide Gamut',
+  codec: 'Long-GOP 4:2:0, MP4 wrapper',
+  bit_depth: '10-bit',
+  chroma_subsampling: '4:2:0',
+  bitrate: '150 Mb/s',
+  lighting: 'Tungsten fresnel through diffusion, fixed level',
+  scene_chart: 'Grey card and a still-life with deep shadows',
+  media: 'House SSD 2',
+};
+
 export const demoTestPlans: DemoStep = async (ctx) => {
   const day = 86_400_000;
   // K9 noise: a full-stop sweep 100–25600; white balance and chart are still open, so the
@@ -90,21 +107,7 @@ export const demoTestPlans: DemoStep = async (ctx) => {
     position: 0,
     secondsPerStep: 6,
     inputs: { baseIso: 800, minIso: 400, maxIso: 3200, step: 'third', base: { fNumber: 2.8, shutter: { kind: 'angle', angleDeg: 180 }, fps: 25, ndDensity: 0.6 }, kit: { ...KIT, maxFNumber: 22 }, priority: PRIORITY },
-    lines: {
-      body: 'Korvala K7 Mark II, firmware 3.1',
-      lens: 'Brightwell Zoom 24-70 T2.9 at 50 mm, T2.9',
-      resolution: '3840×2160 (UHD)',
-      white_balance: '4300 K',
-      gamma_profile: 'Korvala Log 2',
-      colour_space: 'Korvala Wide Gamut',
-      codec: 'Long-GOP 4:2:0, MP4 wrapper',
-      bit_depth: '10-bit',
-      chroma_subsampling: '4:2:0',
-      bitrate: '150 Mb/s',
-      lighting: 'Tungsten fresnel through diffusion, fixed level',
-      scene_chart: 'Grey card and a still-life with deep shadows',
-      media: 'House SSD 2',
-    },
+    lines: K7_SWEEP_LINES,
     checked: ['body', 'lens', 'resolution', 'frame_rate', 'shutter', 'aperture', 'nd', 'iso', 'white_balance', 'gamma_profile', 'colour_space', 'codec', 'bit_depth', 'chroma_subsampling', 'bitrate'],
   });
   const notes: Record<number, [string, number]> = {

@@ -11,11 +11,12 @@
 import { createHash, randomUUID } from 'node:crypto';
 import { mkdir, rename, writeFile } from 'node:fs/promises';
 import { dirname, join, resolve } from 'node:path';
-import { planSteps, specSheetDraftsFor, type ReadoutParams, type ReadoutRegion, type TestKind } from '@midgray/shared';
+import { planSteps, specSheetDraftsFor, stillReadoutParams, type ReadoutParams, type ReadoutRegion, type TestKind } from '@midgray/shared';
 import { syntheticChartLayout, synthChartFrame, type Frame } from '../../api/src/modules/readouts/measure/index.ts';
 import { framePreview, noiseFigures, recoveryFigures, softwareVersion } from '../../api/src/modules/readouts/readout-figures.ts';
 import { Activity, Episode, EpisodeGear, Footage, PublishSlot, Readout, SpecSheetLine, Test, TestStep } from '../src/index.ts';
 import type { DemoContext, DemoStep } from './demo.ts';
+import { K7_SWEEP_LINES } from './demo-plans.ts';
 
 const W = 480;
 const H = 270;
@@ -157,19 +158,7 @@ async function readout(ctx: DemoContext, r: DemoReadout) {
   );
 }
 
-const baseParams = (region: ReadoutRegion | null): ReadoutParams => ({
-  region,
-  grid: null,
-  transfer: 'srgb',
-  transferFrom: 'auto',
-  referenceTransfer: null,
-  frameTimeSeconds: null,
-  referenceFrameTimeSeconds: null,
-  stride: null,
-  snrThresholdDb: 20,
-  deltaEThreshold: 2.5,
-  referenceStepId: null,
-});
+const baseParams = (region: ReadoutRegion | null): ReadoutParams => stillReadoutParams({ region });
 
 /** Noise readouts of every step of an ISO sweep, on frames whose noise follows `sigmaAt`. */
 async function measureSweep(ctx: DemoContext, test: Test, steps: TestStep[], firmware: '3.0' | '3.1', when: Date, prefix: string) {
@@ -306,21 +295,7 @@ async function shotTest(ctx: DemoContext, episodeId: string, kind: TestKind, nam
   return { test, steps };
 }
 
-const BASELINE_LINES: Record<string, string> = {
-  body: 'Korvala K7 Mark II, firmware 3.0',
-  lens: 'Brightwell Zoom 24-70 T2.9 at 50 mm, T2.9',
-  resolution: '3840×2160 (UHD)',
-  white_balance: '4300 K',
-  gamma_profile: 'Korvala Log 2',
-  colour_space: 'Korvala Wide Gamut',
-  codec: 'Long-GOP 4:2:0, MP4 wrapper',
-  bit_depth: '10-bit',
-  chroma_subsampling: '4:2:0',
-  bitrate: '150 Mb/s',
-  lighting: 'Tungsten fresnel through diffusion, fixed level',
-  scene_chart: 'Grey card and a 24-patch chart',
-  media: 'House SSD 2',
-};
+const BASELINE_LINES: Record<string, string> = { ...K7_SWEEP_LINES, body: 'Korvala K7 Mark II, firmware 3.0', scene_chart: 'Grey card and a 24-patch chart' };
 
 /** Readouts of the demo (see the file comment). Runs after the test plans step. */
 export const demoReadouts: DemoStep = async (ctx) => {

@@ -4,20 +4,12 @@ import { execFileSync } from 'node:child_process';
 import { createHash, randomBytes } from 'node:crypto';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
-import type { Page } from '@playwright/test';
-import { allowHttpError, DEMO, expect, signInAs, test } from '../fixtures/app.ts';
+import { DEMO, allowHttpError, episodeId, expect, signInAs, test } from '../fixtures/app.ts';
 import { checkA11y } from '../fixtures/look.ts';
 import { resetDemo } from '../fixtures/reset.ts';
 
 // The journeys build on each other (upload, then pickup) on a freshly seeded demo.
 test.beforeAll(() => resetDemo());
-
-/** Id of the demo episode whose title starts with `titleStart`, read from the board API as the signed-in user. */
-async function episodeId(page: Page, titleStart: string) {
-  const me = await (await page.request.get('/api/auth/me')).json();
-  const board = await (await page.request.get(`/api/channels/${me.channels[0].id}/board`)).json();
-  return (board.episodes as { id: string; title: string }[]).find((e) => e.title.startsWith(titleStart))!.id;
-}
 
 test('A host uploads a clip through the dashboard, watches its progress and sees it verified and probed', async ({ page }, info) => {
   test.slow(); // a throttled upload, then the checks in the background

@@ -10,19 +10,13 @@ import type { Page } from '@playwright/test';
 import sharp from 'sharp';
 import { checkA11y, shoot } from '../fixtures/look.ts';
 import { resetDemo } from '../fixtures/reset.ts';
-import { DEMO, expect, signInAs, test } from '../fixtures/app.ts';
+import { DEMO, episodeId, expect, signInAs, test } from '../fixtures/app.ts';
 
 test.beforeAll(() => resetDemo());
 
 const TITLE = 'Field 7 recorder: codecs and card speed';
 const SWEEP = 'Recorder sweep 800–1600';
 const STEPS = ['ISO 800', 'ISO 1600'];
-
-async function episodeId(page: Page): Promise<string> {
-  const me = await (await page.request.get('/api/auth/me')).json();
-  const board = await (await page.request.get(`/api/channels/${me.channels[0].id}/board`)).json();
-  return (board.episodes as { id: string; title: string }[]).find((e) => e.title === TITLE)!.id;
-}
 
 /** A 1-second 320×180 clip from ffmpeg's test source at 23.976 fps (the demo sheet's frame rate). */
 function clip(dir: string, name: string) {
@@ -57,7 +51,7 @@ test('An editor gets the pickup mail, uploads a clip and a frame per step, picks
 
   // The host's part: a two-step sweep and the first camera original.
   await signInAs(page, DEMO.host);
-  const id = await episodeId(page);
+  const id = await episodeId(page, TITLE, { exact: true });
   await page.goto(`/episodes/${id}?tab=plan`);
   await page.getByRole('button', { name: '+ ISO sweep' }).click();
   const editor = page.getByRole('form', { name: 'New ISO sweep' });

@@ -3,16 +3,7 @@
 // lighting warning, prints the shot list and downloads it as CSV.
 import type { Page } from '@playwright/test';
 import { checkA11y, shoot } from '../fixtures/look.ts';
-import { DEMO, expect, signInAs, test } from '../fixtures/app.ts';
-
-/** Id of the demo episode whose title starts with `titleStart`, read from the board API as the signed-in user. */
-async function episodeId(page: Page, titleStart: string): Promise<string> {
-  const me = await (await page.request.get('/api/auth/me')).json();
-  const board = await (await page.request.get(`/api/channels/${me.channels[0].id}/board`)).json();
-  const episode = (board.episodes as { id: string; title: string }[]).find((e) => e.title.startsWith(titleStart));
-  if (!episode) throw new Error(`no demo episode starting with "${titleStart}"`);
-  return episode.id;
-}
+import { DEMO, episodeId, expect, signInAs, test } from '../fixtures/app.ts';
 
 /** Opens the episode page and its Plan tab. */
 async function openPlan(page: Page, id: string) {

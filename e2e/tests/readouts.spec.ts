@@ -4,22 +4,13 @@
 // after its firmware update.
 import type { Page } from '@playwright/test';
 import { checkA11y, shoot } from '../fixtures/look.ts';
-import { DEMO, expect, signInAs, test } from '../fixtures/app.ts';
+import { DEMO, episodeId, expect, signInAs, test } from '../fixtures/app.ts';
 
 // Each journey scans with axe and takes screenshots at two sizes: more than the default minute on a busy machine.
 test.describe.configure({ timeout: 120_000 });
 
 const K7 = 'K7 Mark II after firmware 3.1';
 const BASELINE = 'Firmware 3.0 baseline';
-
-/** Id of the demo episode whose title starts with `titleStart` (board API as the signed-in user). */
-async function episodeId(page: Page, titleStart: string): Promise<string> {
-  const me = await (await page.request.get('/api/auth/me')).json();
-  const board = await (await page.request.get(`/api/channels/${me.channels[0].id}/board`)).json();
-  const episode = (board.episodes as { id: string; title: string }[]).find((e) => e.title.startsWith(titleStart));
-  if (!episode) throw new Error(`no demo episode starting with "${titleStart}"`);
-  return episode.id;
-}
 
 async function openReadouts(page: Page, id: string) {
   await page.goto(`/episodes/${id}?tab=readouts`);

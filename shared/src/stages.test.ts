@@ -9,6 +9,7 @@ import {
   STAGES,
   canRole,
   checkStageMove,
+  factsPastApproval,
   nextStage,
   type RoleAction,
   type Stage,
@@ -327,5 +328,21 @@ describe('canRole (PRODUCT.md "Who uses it")', () => {
 
   it('refuses an unknown action', () => {
     expect(canRole('admin', 'episode.delete' as RoleAction)).toBe(false);
+  });
+});
+
+describe('facts for moves past Approval', () => {
+  it('judge approval → scheduled and scheduled → live on the slot, embargo and URL alone', () => {
+    const now = '2026-05-04T09:30:00Z';
+    expect(move('approval', 'scheduled', 'producer', factsPastApproval({ now, approvedSlotAt: '2026-05-05T09:00:00Z' })).allowed).toBe(true);
+    // An embargo still running stops the approval (PRODUCT.md stage rules).
+    const embargoed = factsPastApproval({ now, approvedSlotAt: '2026-05-05T09:00:00Z', embargoes: [{ gearName: 'Korvala K9 body', embargoAt: '2026-05-06T13:00:00Z', zone: 'Europe/Berlin' }] });
+    expect(move('approval', 'scheduled', 'producer', embargoed).allowed).toBe(false);
+    expect(move('scheduled', 'live', 'producer', factsPastApproval({ now, approvedSlotAt: '2026-05-04T09:00:00Z', publicUrl: 'https://video.example.com/watch/k9' })).allowed).toBe(true);
+    expect(move('scheduled', 'live', 'producer', factsPastApproval({ now, approvedSlotAt: '2026-05-04T09:00:00Z' })).allowed).toBe(false);
+  });
+
+  it('do not make an earlier move pass: plan → shoot still needs a test', () => {
+    expect(move('plan', 'shoot', 'host', factsPastApproval({ now: '2026-05-04T09:30:00Z' })).allowed).toBe(false);
   });
 });

@@ -64,6 +64,15 @@ export interface StageFacts {
   publicUrl?: string;
 }
 
+/**
+ * Facts for a move out of Approval or Scheduled: the earlier stages' rules (tests, spec sheet,
+ * camera originals, description draft, proposed slot) were met to get there, so they read as met;
+ * no embargo and no disclosure need unless given. `facts` gives what the move itself is judged on.
+ */
+export function factsPastApproval(facts: Pick<StageFacts, 'now'> & Partial<StageFacts>): StageFacts {
+  return { testCount: 0, requiredSpecLinesEmpty: [], cameraOriginalsReceived: 0, hasDescriptionDraft: true, hasProposedSlot: true, embargoes: [], disclosureRequired: false, disclosurePresent: true, ...facts };
+}
+
 export interface StageMoveContext {
   from: Stage;
   to: Stage;

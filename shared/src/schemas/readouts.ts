@@ -1,6 +1,7 @@
 // Readouts (issue 6): noise and recovery measurements of a test's frames, what the API accepts to
 // run them, and what it returns (per step: latest done readout and history; per test: verdicts).
 import { z } from 'zod';
+import { ChannelSettingsSchema } from './channels.ts';
 import { UuidSchema } from './common.ts';
 import { ReadoutRegionSchema, type ReadoutRegion, type TestKind } from './test-plans.ts';
 
@@ -97,6 +98,16 @@ export interface ReadoutParams {
   deltaEThreshold: number;
   /** Recovery: the 0-stop step the frame was compared with. */
   referenceStepId: string | null;
+}
+
+/**
+ * Parameters of a readout of a frame grab with nothing chosen: the centre tenth, sRGB by its file
+ * type, no grid, no reference, and the thresholds a channel starts with; `change` overrides any.
+ * Demo data and tests start from these (the API builds a request's own from its input).
+ */
+export function stillReadoutParams(change: Partial<ReadoutParams> = {}): ReadoutParams {
+  const { snrThresholdDb, deltaEThreshold } = ChannelSettingsSchema.parse({});
+  return { region: null, grid: null, transfer: 'srgb', transferFrom: 'auto', referenceTransfer: null, frameTimeSeconds: null, referenceFrameTimeSeconds: null, stride: null, snrThresholdDb, deltaEThreshold, referenceStepId: null, ...change };
 }
 
 /** A rectangle in pixels. */

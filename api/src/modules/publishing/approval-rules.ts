@@ -1,6 +1,6 @@
 // What stops a publish slot from being approved, in words a producer can act on. Used by the
 // approve route (which refuses) and by the approval queue (which shows the same lines beforehand).
-import { checkStageMove, formatInstantWithZoneName, instantToMs, type Embargo, type Role } from '@midgray/shared';
+import { checkStageMove, factsPastApproval, formatInstantWithZoneName, instantToMs, type Embargo, type Role } from '@midgray/shared';
 
 /** The zone to show an embargo in besides its own: the slot's zone, else the channel's, else UTC. */
 function otherZone(embargoZone: string, slotZone: string, channelZone: string): string {
@@ -58,18 +58,13 @@ export function approvalBlockers(input: {
     from: 'approval',
     to: 'scheduled',
     role: input.role,
-    facts: {
-      testCount: 0,
-      requiredSpecLinesEmpty: [],
-      cameraOriginalsReceived: 0,
-      hasDescriptionDraft: true,
-      hasProposedSlot: true,
+    facts: factsPastApproval({
       approvedSlotAt: input.slot.startsAt,
       embargoes: input.embargoes.map(({ gearName, embargoAt, zone }) => ({ gearName, embargoAt, zone })),
       disclosureRequired: input.disclosure.required,
       disclosurePresent: input.disclosure.present,
       now: input.now.toISOString(),
-    },
+    }),
   });
   if (!check.allowed && blockers.length === 0) blockers.push(...check.missing);
   return blockers;

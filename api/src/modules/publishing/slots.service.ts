@@ -7,6 +7,7 @@ import { Description, Episode, PublishSlot } from '@midgray/db';
 import {
   canRole,
   checkStageMove,
+  factsPastApproval,
   composeDescription,
   descriptionInputFrom,
   disclosureRequired,
@@ -242,19 +243,11 @@ export class SlotsService {
         from: 'scheduled',
         to: 'live',
         role,
-        facts: {
-          testCount: 0,
-          requiredSpecLinesEmpty: [],
-          cameraOriginalsReceived: 0,
-          hasDescriptionDraft: true,
-          hasProposedSlot: true,
+        facts: factsPastApproval({
           ...(approved ? { approvedSlotAt: new Date(approved.startsAt).toISOString() } : {}),
-          embargoes: [],
-          disclosureRequired: false,
-          disclosurePresent: true,
           now: now.toISOString(),
           publicUrl: input.publicUrl,
-        },
+        }),
       });
       if (!check.allowed) throw new AppError('stage_rule_failed', `The episode cannot go live yet: ${check.missing.join('; ')}`, { missing: check.missing });
       await moveEpisode(h, 'live', actorId, `Published at ${input.publicUrl}`, transaction, { publicUrl: input.publicUrl });

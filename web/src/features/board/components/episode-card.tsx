@@ -2,10 +2,11 @@ import { useSortable } from '@dnd-kit/sortable';
 import { CSS } from '@dnd-kit/utilities';
 import { memo, useMemo, type PointerEventHandler } from 'react';
 import { Link } from 'react-router-dom';
-import { episodeDateFlags, MOVE_INDEX_END, nextKeyDate, STAGE_LABELS, STAGES, type BoardCard, type BoardGear, type BoardPerson, type Stage } from '@midgray/shared';
+import { episodeDateFlags, MOVE_INDEX_END, nextKeyDate, STAGE_LABELS, type BoardCard, type BoardGear, type BoardPerson, type Stage } from '@midgray/shared';
 import { Avatar } from '../../../components/ui/avatar.tsx';
 import { ChecklistIcon, FootageIcon, GripIcon } from '../../../components/ui/icons.tsx';
 import { DateFlags, KeyDateLine } from './key-date.tsx';
+import { StageOptions } from './stage-options.tsx';
 
 /** What every card needs besides itself; one object per board render so memoised cards compare cheaply. */
 export interface CardContext {
@@ -22,7 +23,6 @@ const MAX_GEAR = 3;
 
 /** The "Move to…" list: the next stage, every earlier stage (back moves say they need a reason) and the column's top. */
 const MoveToSelect = memo(function MoveToSelect({ card, onMoveTo }: { card: BoardCard; onMoveTo: CardContext['onMoveTo'] }) {
-  const here = STAGES.indexOf(card.stage);
   return (
     <select
       aria-label={`Move "${card.title}" to`}
@@ -38,13 +38,7 @@ const MoveToSelect = memo(function MoveToSelect({ card, onMoveTo }: { card: Boar
     >
       <option value="">Move to…</option>
       {card.position > 0 && <option value="top">Top of {STAGE_LABELS[card.stage]}</option>}
-      {STAGES.map((s, i) =>
-        i === here || i > here + 1 ? null : (
-          <option key={s} value={s}>
-            {i < here ? `← ${STAGE_LABELS[s]} (back, with a reason)` : `${STAGE_LABELS[s]} →`}
-          </option>
-        ),
-      )}
+      <StageOptions stage={card.stage} />
     </select>
   );
 });

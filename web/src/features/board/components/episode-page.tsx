@@ -10,7 +10,6 @@ import {
   MOVE_INDEX_END,
   nextKeyDate,
   STAGE_LABELS,
-  STAGES,
   type ActivityEntry,
   type EpisodeDetail,
   type Stage,
@@ -31,6 +30,7 @@ import { formatDay, formatInstant, formatWeek } from '../dates.ts';
 import { EpisodeFormFields } from './episode-form.tsx';
 import { DateFlags, KeyDateLine } from './key-date.tsx';
 import { ReasonDialog, type PendingBackMove } from './reason-dialog.tsx';
+import { StageOptions } from './stage-options.tsx';
 
 /** The episode page: header (stage, people, gear, key dates, date flags), the feature tabs, and the activity list. */
 export function EpisodePage() {
@@ -180,7 +180,6 @@ function EpisodeActions({ episode, canEdit, onEdit }: { episode: EpisodeDetail; 
   const archive = useArchiveEpisode();
   const toast = useToast();
   const [pending, setPending] = useState<PendingBackMove | null>(null);
-  const here = STAGES.indexOf(episode.stage);
   const doMove = (toStage: Stage, reason?: string) =>
     move.mutate(
       // The end of the target column: the server clamps the index, the schema caps it at 100 000.
@@ -217,13 +216,7 @@ function EpisodeActions({ episode, canEdit, onEdit }: { episode: EpisodeDetail; 
           }}
         >
           <option value="">Move to…</option>
-          {STAGES.map((s, i) =>
-            i === here || i > here + 1 ? null : (
-              <option key={s} value={s}>
-                {i < here ? `← ${STAGE_LABELS[s]} (back, with a reason)` : `${STAGE_LABELS[s]} →`}
-              </option>
-            ),
-          )}
+          <StageOptions stage={episode.stage} />
         </select>
       )}
       {canEdit && !episode.archivedAt && <Button onClick={onEdit}>Edit</Button>}
