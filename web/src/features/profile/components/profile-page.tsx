@@ -16,6 +16,8 @@ export function ProfilePage() {
   const toast = useToast();
   const [created, setCreated] = useState<CalendarFeedCreated | null>(null);
   const [confirmReset, setConfirmReset] = useState(false);
+  // A ticked or unticked box shows its new state at once, until the server's answer replaces it.
+  const [shown, setShown] = useState<Partial<Record<MailKind, boolean>>>({});
 
   if (profile.isLoading) return <Loading what="Loading your profile" />;
   if (profile.error) return <ErrorNote error={profile.error} />;
@@ -24,7 +26,9 @@ export function ProfilePage() {
 
   const toggle = (kind: MailKind, enabled: boolean) => {
     const next = enabled ? optOuts.filter((k) => k !== kind) : [...optOuts, kind];
+    setShown((m) => ({ ...m, [kind]: enabled }));
     setOptOuts.mutate(next, {
+      onSettled: () => setShown({}),
       onError: (e) => toast({ tone: 'error', title: e.message }),
       onSuccess: () => toast({ tone: 'success', title: enabled ? 'You will get these e-mails again' : 'You will get no more of these e-mails' }),
     });
@@ -60,7 +64,7 @@ export function ProfilePage() {
               {p.email.map((k) => (
                 <li key={k.kind}>
                   <label className="flex items-start gap-2.5">
-                    <input type="checkbox" className="mt-0.5 h-4 w-4 shrink-0" checked={k.enabled} disabled={setOptOuts.isPending} onChange={(e) => toggle(k.kind, e.target.checked)} />
+                    <input type="checkbox" className="mt-0.5 h-4 w-4 shrink-0" checked={shown[k.kind] ?? k.enabled} disabled={setOptOuts.isPending} onChange={(e) => toggle(k.kind, e.target.checked)} />
                     <span>
                       <span className="block text-sm font-semibold">{k.label}</span>
                       <span className="block text-sm text-ink-muted">{k.who}</span>
