@@ -34,7 +34,7 @@ await migrateUp(db);
 await mkdir(storage, { recursive: true });
 const source = join(dir, 'source.mov');
 {
-  // 2 GiB that starts like a QuickTime file (the upload server checks the first bytes), then noise.
+  // 2 GiB that starts like a MOV file (the upload server checks the first bytes), then noise.
   const block = randomBytes(16 * 1024 * 1024);
   Buffer.from([0, 0, 0, 0x14, 0x66, 0x74, 0x79, 0x70, 0x71, 0x74, 0x20, 0x20, 0, 0, 2, 0, 0x71, 0x74, 0x20, 0x20]).copy(block, 0);
   const fh = await open(source, 'w');

@@ -9,14 +9,31 @@ const VITE_PORT = Number(process.env.VITE_PORT ?? 5173);
 const PUBLIC_URL = process.env.PUBLIC_URL ?? (dev ? `http://127.0.0.1:${VITE_PORT}` : `http://127.0.0.1:${PORT}`);
 const CLUSTER = 'pg';
 
+// Ctrl-C during set-up: the step running then gets it too and fails, and the catch below stops
+// what was started. Without a listener Node would exit at once and leave PostgreSQL running.
+let interrupted = false;
+const onEarlySignal = () => {
+  interrupted = true;
+};
+process.on('SIGINT', onEarlySignal);
+process.on('SIGTERM', onEarlySignal);
+const step = (fn) => {
+  const out = fn();
+  if (interrupted) throw Object.assign(new Error('interrupted during set-up'), { exitCode: 130 });
+  return out;
+};
+
+let pg;
 try {
-  ensureNpmPackages();
-  const pg = ensurePostgres({ name: CLUSTER, port: Number(process.env.PG_PORT ?? 54329), database: 'midgray' });
-  ensureFfmpeg();
+  step(() => ensureNpmPackages());
+  step(() => (pg = ensurePostgres({ name: CLUSTER, port: Number(process.env.PG_PORT ?? 54329), database: 'midgray' })));
+  step(() => ensureFfmpeg());
   const env = { DATABASE_URL: process.env.DATABASE_URL ?? pg.url, NODE_ENV: 'development', PORT: String(PORT), PUBLIC_URL };
-  run(bin('tsx'), ['db/src/cli/migrate.ts'], env);
-  run(bin('tsx'), ['db/src/cli/seed.ts'], env);
-  if (!dev) ensureWebBuild();
+  step(() => run(bin('tsx'), ['db/src/cli/migrate.ts'], env));
+  step(() => run(bin('tsx'), ['db/src/cli/seed.ts'], env));
+  if (!dev) step(() => ensureWebBuild());
+  process.off('SIGINT', onEarlySignal);
+  process.off('SIGTERM', onEarlySignal);
 
   const children = [];
   const server = spawn(bin('tsx'), dev ? ['watch', '--clear-screen=false', 'api/src/server.ts'] : ['api/src/server.ts'], { cwd: REPO_ROOT, stdio: ['ignore', 'inherit', 'inherit'], env: { ...process.env, ...env } });
@@ -73,6 +90,8 @@ try {
     }
   });
 } catch (err) {
+  // A failed step, or Ctrl-C during set-up (the running step dies with it): stop what we started.
   console.error(`[start] ${err.message}`);
+  if (process.env.DATABASE_URL === undefined && pg?.startedHere) stopPostgres(CLUSTER);
   process.exit(err.exitCode ?? 1);
 }

@@ -43,7 +43,7 @@ const NASTY = [
   'NaN',
   '1e309',
   '2026-02-30T25:61:00Z',
-  'Mars/Olympus',
+  'Mars/Tharsis',
   'javascript:alert(1)',
 ];
 const FIELDS = ['name', 'title', 'email', 'role', 'version', 'stage', 'toStage', 'toIndex', 'reason', 'kind', 'make', 'model', 'serial', 'source', 'embargoAt', 'embargoZone', 'dueBackOn', 'receivedOn', 'notes', 'value', 'label', 'startsAt', 'zone', 'comment', 'url', 'settings', 'inputs', 'steps', 'chapters', 'summary', 'publicUrl', 'timeZone', 'gearIds', 'hostId', 'editorId', '__proto__', 'constructor'];

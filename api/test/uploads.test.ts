@@ -80,7 +80,7 @@ beforeAll(async () => {
   team = made.team;
   outsider = await newUser(ctx, 'Olu Outsider');
   episodeId = (await Episode.create({ channelId: made.channelId, title: 'Upload test episode', stage: 'shoot', position: 0 })).id;
-  // About 200 MB of real video: 49 uncompressed 1080p 4:2:2 frames (2vuy) in a QuickTime file.
+  // About 200 MB of real video: 49 uncompressed 1080p 4:2:2 frames (2vuy) in a MOV file.
   bigClip = await makeClip(join(work, 'big.mov'), 'testsrc2=size=1920x1080:rate=25', { frames: 49, args: ['-c:v', 'rawvideo', '-pix_fmt', 'uyvy422'] });
   bigSha = await sha256File(bigClip);
 }, 120_000);
@@ -287,12 +287,12 @@ describe('refusals: nothing is stored', () => {
     expect(existsSync(join(storage, 'uploads', idOf(path)))).toBe(false);
     expect(await countRows()).toBe(before);
 
-    // A PNG named .mov: the name says QuickTime, the bytes say PNG.
+    // A PNG named .mov: the name says MOV, the bytes say PNG.
     const png = await create(team.host, meta('grab.mov'), 100);
     const pngBytes = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(92)]);
     const r2 = await tusRequest(team.host, 'PATCH', png.headers.get('location')!, { 'Upload-Offset': '0', 'Content-Type': 'application/offset+octet-stream' }, pngBytes);
     expect(r2.status).toBe(415);
-    expect(r2.text).toMatch(/name says MP4 \/ QuickTime but its contents are PNG/);
+    expect(r2.text).toMatch(/name says MP4 \/ MOV but its contents are PNG/);
   });
 
   it('when Upload-Offset does not match the bytes the server has, then 409 and the upload is unchanged', async () => {

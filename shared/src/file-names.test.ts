@@ -30,7 +30,7 @@ describe('sanitizeFileName', () => {
   it('removes bidirectional overrides that disguise an extension', () => {
     expect(sanitizeFileName('grab\u202egnp.exe')).toBe('grabgnp.exe');
   });
-  it('replaces characters Windows reserves and prefixes device names', () => {
+  it('replaces characters some file systems reserve and prefixes reserved device names', () => {
     expect(sanitizeFileName('take: 1 "best"?.mov')).toBe('take_ 1 _best__.mov');
     expect(sanitizeFileName('CON.mov')).toBe('_CON.mov');
     expect(sanitizeFileName('lpt1')).toBe('_lpt1');

@@ -9,10 +9,10 @@ export const FILE_NAME_MAX_BYTES = 255;
 const CONTROL = /[\u0000-\u001f\u007f-\u009f]/;
 // Bidirectional embeddings, overrides and isolates: they make "evil‮gpj.exe" read as "evilexe.jpg".
 const BIDI = /[\u202a-\u202e\u2066-\u2069\u200e\u200f\u061c]/g;
-// Characters Windows forbids in names; replaced so a downloaded copy saves everywhere.
+// Characters some desktop file systems forbid in names; replaced so a downloaded copy saves everywhere.
 const RESERVED = /[<>:"|?*]/g;
-// Device names Windows reserves, with or without an extension.
-const WINDOWS_DEVICES = /^(con|prn|aux|nul|com[0-9]|lpt[0-9])(\..*)?$/i;
+// Device names some desktop systems reserve, with or without an extension.
+const RESERVED_DEVICES = /^(con|prn|aux|nul|com[0-9]|lpt[0-9])(\..*)?$/i;
 
 /** Returns why a client's file name is refused (path parts, traversal, control characters), or null when acceptable. */
 export function fileNameProblem(name: string): string | null {
@@ -36,7 +36,7 @@ function clipBytes(s: string, maxBytes: number): string {
 
 /**
  * Returns a tidy display name: Unicode NFC, bidirectional controls removed, reserved characters
- * replaced by "_", runs of white space collapsed, no leading or trailing dots or spaces, Windows
+ * replaced by "_", runs of white space collapsed, no leading or trailing dots or spaces, reserved
  * device names prefixed with "_", at most 255 UTF-8 bytes with the extension kept. Call
  * fileNameProblem first: path separators and control characters are refused, not tidied.
  */
@@ -44,7 +44,7 @@ export function sanitizeFileName(name: string): string {
   let s = name.normalize('NFC').replace(BIDI, '').replace(RESERVED, '_').replace(/\s+/g, ' ');
   s = s.replace(/^[\s.]+/, '').replace(/[\s.]+$/, '');
   if (!s) return 'file';
-  if (WINDOWS_DEVICES.test(s)) s = `_${s}`;
+  if (RESERVED_DEVICES.test(s)) s = `_${s}`;
   if (utf8Length(s) > FILE_NAME_MAX_BYTES) {
     const dot = s.lastIndexOf('.');
     const ext = dot > 0 && s.length - dot <= 16 ? s.slice(dot) : '';

@@ -78,7 +78,7 @@ describe('parseBitrateMbps (IEC 80000-13: k = 10³, M = 10⁶, G = 10⁹; 1 byte
     ['1,200 Mb/s', 1200],
     ['50 MB/s', 400],
     ['800 kb/s', 0.8],
-    ['  280 Mb/s (ProRes-class, from the recorder)', 280],
+    ['  280 Mb/s (intra-frame 4:2:2, from the recorder)', 280],
   ])('reads %s as %f Mb/s', (text, mbps) => {
     expect(parseBitrateMbps(text)).toBeCloseTo(mbps, 9);
   });

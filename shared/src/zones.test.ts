@@ -120,7 +120,7 @@ describe('isValidTimeZone', () => {
   });
 
   it('refuses unknown names, offsets and blanks', () => {
-    for (const zone of ['Europe/Atlantis', 'Mars/Olympus_Mons', '+01:00', 'UTC+2', '', ' Europe/Berlin', 'Europe/Berlin/']) {
+    for (const zone of ['Europe/Atlantis', 'Mars/Tharsis_Plain', '+01:00', 'UTC+2', '', ' Europe/Berlin', 'Europe/Berlin/']) {
       expect(isValidTimeZone(zone)).toBe(false);
     }
   });

@@ -50,7 +50,7 @@ export function layoutMail(opts: { channelName: string; heading: string; paragra
     `${opts.channelName} · Midgray`,
     footer,
   ].join('\n');
-  const html = `<!doctype html><html><body style="font-family:Arial,sans-serif;color:#1c1c1a;background:#f4f4f2;padding:24px">
+  const html = `<!doctype html><html><body style="font-family:sans-serif;color:#1c1c1a;background:#f4f4f2;padding:24px">
 <div style="max-width:560px;margin:auto;background:#ffffff;border:1px solid #d6d6d2;border-radius:8px;padding:24px">
 <p style="margin:0 0 4px;color:#55554f;font-size:13px">${esc(opts.channelName)} · Midgray</p>
 <h1 style="font-size:20px;margin:0 0 16px">${esc(opts.heading)}</h1>

@@ -13,7 +13,7 @@ describe('sniffFormat against the published signatures', () => {
   it('MP4: a box of type ftyp at byte 4 (ISO/IEC 14496-12 §4.3)', () => {
     expect(sniffFormat(cat(b(0, 0, 0, 0x20), text('ftypisom')))).toEqual({ format: 'isobmff' });
   });
-  it('QuickTime without ftyp: a first atom moov, mdat or wide (QuickTime File Format, atoms)', () => {
+  it('MOV without ftyp: a first atom moov, mdat or wide (the MOV file format\'s atom layout)', () => {
     expect(sniffFormat(cat(b(0, 0, 0, 8), text('wide'), b(0, 0, 0, 8), text('mdat')))).toEqual({ format: 'isobmff' });
     expect(sniffFormat(cat(b(0, 0, 1, 0), text('moov')))).toEqual({ format: 'isobmff' });
   });
@@ -25,7 +25,7 @@ describe('sniffFormat against the published signatures', () => {
     expect(sniffFormat(key)).toEqual({ format: 'mxf' });
     expect(sniffFormat(cat(new Uint8Array(100).fill(0x55), key))).toEqual({ format: 'mxf' });
   });
-  it('AVI: "RIFF", size, "AVI " (Microsoft RIFF / AVI file format)', () => {
+  it('AVI: "RIFF", size, "AVI " (the RIFF / AVI file format)', () => {
     expect(sniffFormat(cat(text('RIFF'), b(0xf0, 0x1d, 0, 0), text('AVI LIST')))).toEqual({ format: 'avi' });
     // A WAVE file is RIFF too, but not video.
     expect(sniffFormat(cat(text('RIFF'), b(0xf0, 0x1d, 0, 0), text('WAVEfmt ')), true)).toEqual({ format: null, needMore: false });

@@ -14,15 +14,15 @@ const ascii = (buf: Uint8Array, at: number, text: string) => {
 const bytes = (buf: Uint8Array, at: number, sig: readonly number[]) => buf.length >= at + sig.length && sig.every((b, i) => buf[at + i] === b);
 
 // ISO/IEC 14496-12 (ISO base media file format): a file starts with a box, size (4 bytes) then
-// type; 'ftyp' comes first in MP4. Older QuickTime movies (Apple QuickTime File Format) may start
+// type; 'ftyp' comes first in MP4. Older MOV files (the MOV file format's atom layout) may start
 // with other top-level atoms: 'moov', 'mdat', 'free', 'skip', 'wide', 'pnot'.
-const QUICKTIME_FIRST_ATOMS = ['ftyp', 'moov', 'mdat', 'free', 'skip', 'wide', 'pnot'];
+const MOV_FIRST_ATOMS = ['ftyp', 'moov', 'mdat', 'free', 'skip', 'wide', 'pnot'];
 // RFC 8794 (EBML): the EBML header element ID 0x1A45DFA3 opens Matroska and WebM files.
 const EBML = [0x1a, 0x45, 0xdf, 0xa3];
 // SMPTE ST 377-1 (MXF) §5.5: the header partition pack key 06.0E.2B.34.02.05.01.01.0D.01.02.01.01.02
 // (byte 14 = kind of partition: 02 header; byte 15 = status), after an optional run-in.
 const MXF_PARTITION_KEY = [0x06, 0x0e, 0x2b, 0x34, 0x02, 0x05, 0x01, 0x01, 0x0d, 0x01, 0x02, 0x01, 0x01, 0x02];
-// Microsoft RIFF: "RIFF", 4-byte little-endian size, then the form type "AVI ".
+// RIFF: "RIFF", 4-byte little-endian size, then the form type "AVI ".
 // PNG (ISO/IEC 15948, W3C PNG §5.2): the eight signature bytes 137 80 78 71 13 10 26 10.
 const PNG = [0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a];
 // JPEG (ITU-T T.81 §B.1.1.3): SOI marker FF D8, followed by another marker (FF xx).
@@ -42,7 +42,7 @@ export type SniffResult = { format: FileFormat } | { format: null; needMore: boo
  * (so a short prefix is final); otherwise fewer than SNIFF_BYTES may answer needMore.
  */
 export function sniffFormat(head: Uint8Array, complete = false): SniffResult {
-  if (head.length >= 8 && QUICKTIME_FIRST_ATOMS.some((t) => ascii(head, 4, t))) return { format: 'isobmff' };
+  if (head.length >= 8 && MOV_FIRST_ATOMS.some((t) => ascii(head, 4, t))) return { format: 'isobmff' };
   if (bytes(head, 0, EBML)) return { format: 'matroska' };
   if (ascii(head, 0, 'RIFF') && ascii(head, 8, 'AVI ')) return { format: 'avi' };
   if (bytes(head, 0, PNG)) return { format: 'png' };

@@ -182,7 +182,7 @@ export const storageKeyOf = (id: string) => `uploads/${id}`;
 /** Returns why `format` (found in the bytes) is refused for a file named `name` of `kind`, or null. */
 export function formatProblem(format: FileFormat | null, kind: FootageKind, claimed: FileFormat | null): string | null {
   const kindName = FOOTAGE_KIND_LABELS[kind].toLowerCase();
-  if (!format) return `The file's first bytes are not a video container or still image Midgray accepts as a ${kindName} (it checks MP4/QuickTime, Matroska, MXF, AVI, PNG, JPEG, TIFF and DPX). Check that you picked the right file.`;
+  if (!format) return `The file's first bytes are not a video container or still image Midgray accepts as a ${kindName} (it checks MP4/MOV, Matroska, MXF, AVI, PNG, JPEG, TIFF and DPX). Check that you picked the right file.`;
   if (claimed && claimed !== format) {
     return `The file's name says ${FILE_FORMAT_LABELS[claimed]} but its contents are ${FILE_FORMAT_LABELS[format]}: rename it to ${FORMAT_EXTENSIONS[format][0]} or pick the right file.`;
   }

@@ -22,7 +22,7 @@ export const FOOTAGE_STATE_LABELS: Record<FootageState, string> = { receiving: '
 export const FILE_FORMATS = ['isobmff', 'matroska', 'mxf', 'avi', 'png', 'jpeg', 'tiff', 'dpx'] as const;
 export type FileFormat = (typeof FILE_FORMATS)[number];
 export const FILE_FORMAT_LABELS: Record<FileFormat, string> = {
-  isobmff: 'MP4 / QuickTime',
+  isobmff: 'MP4 / MOV',
   matroska: 'Matroska / WebM',
   mxf: 'MXF',
   avi: 'AVI',

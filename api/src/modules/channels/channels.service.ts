@@ -65,7 +65,7 @@ export class ChannelsService {
   /** Changes a member's role; refuses to demote the last admin. */
   async changeRole(channelId: string, actorId: string, memberId: string, role: Role): Promise<Member> {
     await this.sequelize.transaction(async (transaction) => {
-      const m = await this.lockMember(channelId, memberId, transaction);
+      const m = await this.lockMembers(channelId, actorId, memberId, transaction);
       if (m.role === role) return;
       if (m.role === 'admin') await this.assertAnotherAdmin(channelId, transaction, 'change the role of');
       const from = m.role;
@@ -80,23 +80,32 @@ export class ChannelsService {
   /** Removes a member; their next request no longer sees the channel. Refuses the last admin. */
   async removeMember(channelId: string, actorId: string, memberId: string): Promise<void> {
     await this.sequelize.transaction(async (transaction) => {
-      const m = await this.lockMember(channelId, memberId, transaction);
+      const m = await this.lockMembers(channelId, actorId, memberId, transaction);
       if (m.role === 'admin') await this.assertAnotherAdmin(channelId, transaction, 'remove');
       await m.destroy({ transaction });
       await recordActivity({ channelId, actorId, subjectType: 'member', subjectId: m.userId, action: 'member.removed', fromValue: m.role }, transaction);
     });
   }
 
-  private async lockMember(channelId: string, memberId: string, transaction: any) {
+  /**
+   * Serialises role changes and removals in one channel (a transaction-level advisory lock), so two
+   * admins demoting each other wait for one another instead of deadlocking on each other's rows;
+   * then checks, inside that order, that the actor is still an admin and the member exists.
+   */
+  private async lockMembers(channelId: string, actorId: string, memberId: string, transaction: any) {
+    await this.sequelize.query(`SELECT pg_advisory_xact_lock(hashtext('midgray.members'), hashtext(:channelId))`, { replacements: { channelId }, type: QueryTypes.SELECT, transaction });
+    const actor = await Membership.findOne({ where: { channelId, userId: actorId }, transaction });
+    if (!actor) throw new AppError('not_found', 'Channel not found');
+    if (actor.role !== 'admin') throw new AppError('forbidden', `Your role (${actor.role}) cannot do this; it needs admin`);
     const m = await Membership.findOne({ where: { id: memberId, channelId }, transaction, lock: transaction.LOCK.UPDATE });
     if (!m) throw new AppError('not_found', 'Member not found');
     return m;
   }
 
-  /** Locks every admin row of the channel, so two admins cannot demote each other at once. */
+  /** Refuses when `channelId` has no admin besides the one being changed (under lockMembers' order). */
   private async assertAnotherAdmin(channelId: string, transaction: any, verb: string) {
-    const admins = await Membership.findAll({ where: { channelId, role: 'admin' }, transaction, lock: transaction.LOCK.UPDATE });
-    if (admins.length <= 1) throw new AppError('conflict', `You cannot ${verb} the last admin of the channel: make someone else admin first`);
+    const admins = await Membership.count({ where: { channelId, role: 'admin' }, transaction });
+    if (admins <= 1) throw new AppError('conflict', `You cannot ${verb} the last admin of the channel: make someone else admin first`);
   }
 
   /** Lists open (not accepted, not revoked, not expired) invitations. */
