@@ -132,10 +132,43 @@ describe('compareProbeWithSpec', () => {
     expect(r.mismatches.map((m) => m.difference)).toEqual(['recorded 24 fps, the spec sheet says 23.976 fps (24000/1001) (+0.024 fps)']);
   });
 
+  describe('bitrate (our tolerance: 0.5–1.25 × the sheet, clips of 5 s or more)', () => {
+    const long = (bps: number): ProbeSummary => ({ ...uhd2398, durationSeconds: 12, bitrateBitsPerSecond: bps });
+    const bitrateSheet = { ...sheet, bitrate: '150 Mb/s' };
+
+    it('when a 12 s clip averages 131.6 Mb/s against 150 Mb/s (variable bitrate on an easy scene), then it matches', () => {
+      const r = compareProbeWithSpec(long(131_600_000), bitrateSheet, 'camera_original');
+      expect(r.mismatches).toEqual([]);
+      expect(r.matched).toContain('bitrate');
+    });
+
+    it('when a clip averages 400 Mb/s against 150 Mb/s (another quality mode), then the difference is spelt out in SI units', () => {
+      // 400 / 150 − 1 = +166.7 %, shown as +167 % (Mb/s = 10⁶ bit/s, IEC 80000-13).
+      const r = compareProbeWithSpec(long(400_000_000), bitrateSheet, 'camera_original');
+      expect(r.mismatches).toEqual([{ key: 'bitrate', label: 'Bitrate', expected: '150 Mb/s', actual: '400 Mb/s', difference: 'recorded 400 Mb/s on average, the spec sheet says 150 Mb/s (+167 %): check the recording mode' }]);
+    });
+
+    it('judges the edges of the band as written: 0.5 × and 1.25 × match, just outside does not', () => {
+      expect(compareProbeWithSpec(long(75_000_000), bitrateSheet, 'camera_original').matched).toContain('bitrate');
+      expect(compareProbeWithSpec(long(187_500_000), bitrateSheet, 'camera_original').matched).toContain('bitrate');
+      expect(compareProbeWithSpec(long(74_000_000), bitrateSheet, 'camera_original').mismatches.map((m) => m.key)).toEqual(['bitrate']);
+      expect(compareProbeWithSpec(long(1_200_000_000), { bitrate: '1.2 Gb/s' }, 'camera_original').matched).toEqual(['bitrate']);
+    });
+
+    it('skips clips shorter than 5 s, files without a bitrate, unreadable lines, and renders and stills', () => {
+      const short = compareProbeWithSpec({ ...uhd2398, durationSeconds: 2.002, bitrateBitsPerSecond: 9e8 }, bitrateSheet, 'camera_original');
+      expect(short.mismatches).toEqual([]);
+      expect(short.skipped.find((x) => x.key === 'bitrate')?.reason).toMatch(/shorter than 5 s/);
+      expect(compareProbeWithSpec({ ...long(1), bitrateBitsPerSecond: null }, bitrateSheet, 'camera_original').skipped.map((x) => x.key)).toContain('bitrate');
+      expect(compareProbeWithSpec(long(1e8), { bitrate: 'as high as it goes' }, 'camera_original').skipped.find((x) => x.key === 'bitrate')?.reason).toMatch(/names no bitrate/);
+      expect(compareProbeWithSpec(long(9e8), bitrateSheet, 'graded_render').mismatches).toEqual([]);
+    });
+  });
+
   it('when lines are empty or unreadable, then they are skipped with a reason, not guessed', () => {
     const r = compareProbeWithSpec(uhd2398, { resolution: '4K', frame_rate: '', codec: 'House secret codec' }, 'camera_original');
     expect(r.mismatches).toEqual([]);
-    expect(r.skipped.map((s) => s.key)).toEqual(['resolution', 'frame_rate', 'codec', 'bit_depth', 'chroma_subsampling']);
+    expect(r.skipped.map((s) => s.key)).toEqual(['resolution', 'frame_rate', 'codec', 'bit_depth', 'chroma_subsampling', 'bitrate']);
     expect(r.skipped[0].reason).toMatch(/width×height/);
   });
 

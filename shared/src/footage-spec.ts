@@ -3,6 +3,7 @@
 // "H.265 / HEVC in MOV"), so each value has a small reader; a value it cannot read is reported
 // as not compared (with the reason), never guessed.
 import type { FootageKind, ProbeComparedKey, ProbeSummary, SpecMismatch, SpecSkip } from './schemas/footage.ts';
+import { parseBitrateMbps } from './test-plan.ts';
 
 const MINUS = '\u2212';
 
@@ -127,12 +128,31 @@ export const PROBE_KEY_LABELS: Record<ProbeComparedKey, string> = {
   codec: 'Codec',
   bit_depth: 'Bit depth',
   chroma_subsampling: 'Chroma subsampling',
+  bitrate: 'Bitrate',
 };
+
+/**
+ * Bitrate check (our own tolerance, not a standard): a camera's average over a clip may sit below
+ * its nominal rate (variable-bitrate modes spend less on easy scenes such as charts) and a little
+ * above it (audio and container overhead are in the file's figure), but a wrong quality mode is
+ * off by a factor of about 1.5 or more. So a clip averaging 0.5–1.25 × the sheet's rate matches,
+ * and clips shorter than BITRATE_MIN_SECONDS are not judged: their average depends on where the
+ * key frames fall.
+ */
+export const BITRATE_MATCH_RATIO = { low: 0.5, high: 1.25 } as const;
+export const BITRATE_MIN_SECONDS = 5;
+
+/** Returns a bitrate for people: "148.2 Mb/s", "1.20 Gb/s", "800 kb/s" (SI, IEC 80000-13). */
+export function describeBitrate(bitsPerSecond: number): string {
+  if (bitsPerSecond >= 1e9) return `${(bitsPerSecond / 1e9).toFixed(2)} Gb/s`;
+  if (bitsPerSecond >= 1e6) return `${Number((bitsPerSecond / 1e6).toFixed(1))} Mb/s`;
+  return `${Math.round(bitsPerSecond / 1e3)} kb/s`;
+}
 
 // Which lines apply to which kind of file: a graded render is a delivery (its codec and depth
 // are the editor's choice), a frame grab a still (no frame rate, codec or sampling of the shoot).
 const KEYS_BY_KIND: Record<FootageKind, readonly ProbeComparedKey[]> = {
-  camera_original: ['resolution', 'frame_rate', 'codec', 'bit_depth', 'chroma_subsampling'],
+  camera_original: ['resolution', 'frame_rate', 'codec', 'bit_depth', 'chroma_subsampling', 'bitrate'],
   graded_render: ['resolution', 'frame_rate'],
   frame_grab: ['resolution'],
 };
@@ -213,6 +233,22 @@ export function compareProbeWithSpec(probe: ProbeSummary, spec: SpecValues, kind
         if (!probe.chromaSubsampling) { skip(key, 'The file reports no chroma subsampling'); break; }
         if (probe.chromaSubsampling === want) { out.matched.push(key); break; }
         differ(key, want, probe.chromaSubsampling, `recorded ${probe.chromaSubsampling}, the spec sheet says ${want}`);
+        break;
+      }
+      case 'bitrate': {
+        const mbps = parseBitrateMbps(text);
+        if (!mbps) { skip(key, `"${text}" names no bitrate: write it like 150 Mb/s`); break; }
+        if (probe.bitrateBitsPerSecond == null || probe.bitrateBitsPerSecond <= 0) { skip(key, 'The file reports no bitrate'); break; }
+        if (probe.durationSeconds == null || probe.durationSeconds < BITRATE_MIN_SECONDS) {
+          skip(key, `The clip is shorter than ${BITRATE_MIN_SECONDS} s: its average bitrate says little about the recording mode`);
+          break;
+        }
+        const want = mbps * 1e6;
+        const ratio = probe.bitrateBitsPerSecond / want;
+        if (ratio >= BITRATE_MATCH_RATIO.low && ratio <= BITRATE_MATCH_RATIO.high) { out.matched.push(key); break; }
+        const percent = (ratio - 1) * 100;
+        differ(key, describeBitrate(want), describeBitrate(probe.bitrateBitsPerSecond),
+          `recorded ${describeBitrate(probe.bitrateBitsPerSecond)} on average, the spec sheet says ${describeBitrate(want)} (${signed(percent)} %): check the recording mode`);
         break;
       }
     }

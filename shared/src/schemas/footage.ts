@@ -113,7 +113,7 @@ export const ProbeSummarySchema = z.object({
 export type ProbeSummary = z.infer<typeof ProbeSummarySchema>;
 
 /** Spec-sheet keys a probe can be compared with. */
-export const PROBE_COMPARED_KEYS = ['resolution', 'frame_rate', 'codec', 'bit_depth', 'chroma_subsampling'] as const;
+export const PROBE_COMPARED_KEYS = ['resolution', 'frame_rate', 'codec', 'bit_depth', 'chroma_subsampling', 'bitrate'] as const;
 export type ProbeComparedKey = (typeof PROBE_COMPARED_KEYS)[number];
 
 /** One value where the file differs from the spec sheet, with the difference spelt out. */
