@@ -97,17 +97,22 @@ DEMO_STEPS.push(demoReadouts);
 // After the test plans: footage of the K7 sweep's first steps.
 DEMO_STEPS.push(demoFootage);
 
-/** Seeds the demo scenario once; returns false when it was already there. */
+/**
+ * Seeds the demo scenario once; returns false when it was already there. "There" means the demo
+ * admin's account exists: demo accounts are made only by this seed, and no one deletes accounts,
+ * so renaming the channel or removing people from it never brings a second demo. Two starts at
+ * once wait for each other (an advisory lock held by the seeding transaction).
+ */
 export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<boolean> {
-  // The demo is present when the demo admin belongs to a channel of the demo's name.
   const admin = DEMO_PEOPLE.find((p) => p.role === 'admin')!;
-  const existing = await sequelize.query<{ id: string }>(
-    `SELECT c.id FROM channels c JOIN memberships m ON m.channel_id = c.id JOIN users u ON u.id = m.user_id
-      WHERE c.name = :name AND u.provider = 'github' AND u.provider_id = :pid LIMIT 1`,
-    { replacements: { name: DEMO_CHANNEL_NAME, pid: admin.providerId }, type: QueryTypes.SELECT },
-  );
-  if (existing.length) return false;
-  await sequelize.transaction(async (transaction) => {
+  return sequelize.transaction(async (transaction) => {
+    await sequelize.query(`SELECT pg_advisory_xact_lock(hashtext('midgray.demo-seed'))`, { type: QueryTypes.SELECT, transaction });
+    const existing = await sequelize.query<{ id: string }>(`SELECT id FROM users WHERE provider = 'github' AND provider_id = :pid LIMIT 1`, {
+      replacements: { pid: admin.providerId },
+      type: QueryTypes.SELECT,
+      transaction,
+    });
+    if (existing.length) return false;
     const people: Record<string, string> = {};
     for (const p of DEMO_PEOPLE) {
       const [u] = await User.findOrCreate({
@@ -132,6 +137,6 @@ export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<
     for (const p of DEMO_PEOPLE) if (p.role) await Membership.create({ channelId: channel.id, userId: people[p.login], role: p.role }, { transaction });
     const ctx: DemoContext = { sequelize, transaction, channelId: channel.id, people, gear: {}, episodes: {}, now };
     for (const step of DEMO_STEPS) await step(ctx);
+    return true;
   });
-  return true;
 }
