@@ -45,6 +45,13 @@ export async function startTestApp(opts: AppOptions & { env?: Record<string, str
     GITHUB_CLIENT_SECRET: 'test-secret',
     FAKE_OAUTH_PORT: String(oauth.port),
     FAKE_SMTP_PORT: String(smtp.port),
+    // Named explicitly, as production needs them (the fakes' own addresses).
+    OAUTH_AUTHORIZATION_URL: `${oauthUrl}/login/oauth/authorize`,
+    OAUTH_TOKEN_URL: `${oauthUrl}/login/oauth/access_token`,
+    OAUTH_USER_PROFILE_URL: `${oauthUrl}/user`,
+    OAUTH_USER_EMAIL_URL: `${oauthUrl}/user/emails`,
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: String(smtp.port),
     MAILBOX_DIR: mailboxDir,
     STORAGE_DIR: join(mailboxDir, 'storage'),
     WEB_DIST: join(mailboxDir, 'no-web'),

@@ -62,6 +62,13 @@ export function loadEnv(source: NodeJS.ProcessEnv = process.env): Env {
   if (env.NODE_ENV === 'production' && env.SESSION_SECRET.startsWith('development-only')) {
     throw new Error('Set SESSION_SECRET in production');
   }
+  if (env.NODE_ENV === 'production') {
+    // In production (no local stand-ins) the real provider and mail server must be named: defaults
+    // would point sign-in and mail at 127.0.0.1 ports nothing listens on.
+    const named = ['OAUTH_AUTHORIZATION_URL', 'OAUTH_TOKEN_URL', 'OAUTH_USER_PROFILE_URL', 'OAUTH_USER_EMAIL_URL', 'GITHUB_CLIENT_ID', 'GITHUB_CLIENT_SECRET', 'SMTP_HOST', 'SMTP_PORT'];
+    const missing = named.filter((k) => !source[k]);
+    if (missing.length) throw new Error(`Configuration error: in production set ${missing.join(', ')} (the sign-in provider's endpoints and client, and the mail server)`);
+  }
   const fake = `http://127.0.0.1:${env.FAKE_OAUTH_PORT}`;
   env.OAUTH_AUTHORIZATION_URL ??= `${fake}/login/oauth/authorize`;
   env.OAUTH_TOKEN_URL ??= `${fake}/login/oauth/access_token`;
