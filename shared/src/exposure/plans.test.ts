@@ -85,6 +85,8 @@ describe('isoSweepPlan', () => {
       base: { fNumber: 2.8, shutter: { kind: 'angle', angleDeg: 180 }, fps: 25 },
       kit: { minFNumber: 2.8, maxFNumber: 16 },
     });
+    // Worked example (our own, from the APEX relation EV = log2(N²/t)): ISO 800 → 100 is 3 stops
+    // (log2(800/100) = 3) and f/2.8 is the widest the kit allows, so all 3 stops must come from light.
     expect(plan.steps[0]!.warning).toBe('Needs 3 stops more light than the kit can add: add light or use a faster lens.');
     expect(plan.steps[0]!.exposureErrorStops).toBeCloseTo(-3, 9);
   });
@@ -98,6 +100,8 @@ describe('isoSweepPlan', () => {
       base: { fNumber: 2.8, shutter: { kind: 'angle', angleDeg: 180 }, fps: 24 },
       kit: { minFNumber: 2.8, maxFNumber: 4, lightsDimmable: true, lightDownStops: 2 },
     });
+    // Worked example (our own): each full ISO step is 1 stop (ISO 12232 series); f/2.8 → f/4 is one
+    // stop (2·log2(4/2.8) ≈ 0.97, the marked series), then the lights give up to 2 stops, then nothing is left.
     expect(plan.steps.map((s) => [s.iso, s.fNumber, s.lightChangeStops])).toEqual([
       [100, 2.8, 0],
       [200, 4, 0],
@@ -179,6 +183,8 @@ describe('latitudeBracketPlan', () => {
     expect(plus4thirds.achievedOffsetStops).toBeCloseTo(4 / 3, 2);
   });
 
+  // Worked example (our own, APEX stops as above): f/4 with ND 0.6 at ISO 800 leaves the kit a few
+  // stops each way, so ±6 must run out at both ends and say so.
   it('when the kit runs out at ±6, then the far steps warn and say which way', () => {
     const plan = latitudeBracketPlan({
       baseIso: 800,
