@@ -1,6 +1,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestApp, type TestContext } from './helpers.ts';
+import { Invitation } from '@midgray/db';
+import { channelWithTeam, startTestApp, type TestContext } from './helpers.ts';
 
 // OWASP ASVS 5.0 (sessions, headers) and the tests issue 8 names: headers, cookie flags in
 // production, rate limits, closed CORS.
@@ -66,5 +67,25 @@ describe('cookies in production mode', () => {
 
   it('does not serve the development mailbox in production', async () => {
     await request(ctx.app).get('/api/dev/mailbox').expect(404);
+  });
+});
+
+describe('invitation rate limit', () => {
+  let ctx: TestContext;
+  beforeAll(async () => {
+    ctx = await startTestApp({ invitesPerHour: 2 });
+  });
+  afterAll(() => ctx?.close());
+
+  it('refuses the third invitation within the hour with 429, and writes no invitation for it', async () => {
+    const { channelId, team } = await channelWithTeam(ctx);
+    const invite = (n: number) => team.admin.post(`/api/channels/${channelId}/invitations`, { email: `guest-${n}@crew.test`, role: 'editor' });
+    expect((await invite(1)).status).toBe(201);
+    expect((await invite(2)).status).toBe(201);
+    const third = await invite(3);
+    expect(third.status).toBe(429);
+    expect(third.body.error).toMatchObject({ code: 'rate_limited' });
+    expect(third.body.error.message).toMatch(/wait/);
+    expect(await Invitation.count({ where: { channelId } })).toBe(2);
   });
 });
