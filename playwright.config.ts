@@ -40,6 +40,8 @@ export default defineConfig({
       FAKE_SMTP_PORT: String(PORT + 2),
       MAILBOX_DIR: `.data/e2e-mailbox-${PORT}`,
       STORAGE_DIR: `.data/e2e-storage-${PORT}`,
+      // Browser tests do not depend on the machine's free space (the API tests check the reserve).
+      UPLOAD_DISK_RESERVE_BYTES: '0',
     },
   },
 });

@@ -22,6 +22,7 @@ const env = loadEnv({
   FAKE_OAUTH_PORT: String(oauth.port),
   MAILBOX_DIR: join(storage, 'mail'),
   STORAGE_DIR: storage,
+  UPLOAD_DISK_RESERVE_BYTES: '0',
   WEB_DIST: join(storage, 'no-web'),
   UPLOAD_MAX_BYTES: String(4 * 1024 ** 3),
 });

@@ -53,6 +53,8 @@ export async function startTestApp(opts: AppOptions & { env?: Record<string, str
     SMTP_HOST: '127.0.0.1',
     SMTP_PORT: String(smtp.port),
     MAILBOX_DIR: mailboxDir,
+    // Tests do not depend on the machine's free space; the reserve itself is tested with a given free space.
+    UPLOAD_DISK_RESERVE_BYTES: '0',
     STORAGE_DIR: join(mailboxDir, 'storage'),
     WEB_DIST: join(mailboxDir, 'no-web'),
     ...opts.env,

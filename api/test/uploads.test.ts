@@ -16,6 +16,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Episode, Footage, UploadRecord } from '@midgray/db';
 import { channelWithTeam, newUser, startTestApp, type Client, type TestContext } from './helpers.ts';
 import { authHeaders, cookieOf, makeClip, sha256File, startTus, tusErrorOf, waitFor } from './upload-helpers.ts';
+import { Upload } from '@tus/utils';
+import { UploadRecords, UploadRefusal, type UploadLimits } from '../src/uploads/upload-store.ts';
 
 const MiB = 1024 * 1024;
 const REPO = resolve(import.meta.dirname, '..', '..');
@@ -406,3 +408,46 @@ function freePort(): Promise<number> {
     s.on('error', reject);
   });
 }
+
+// The creation checks themselves, on the real tables with a given free space (the running app's own
+// check reads the disk, which a test cannot set): the open-upload count, and the disk reserve.
+describe('limits checked when an upload is created', () => {
+  const GiB = 1024 ** 3;
+  const records = (limits: Partial<UploadLimits>) =>
+    new UploadRecords(ctx.sequelize, { expiryMs: 3_600_000, maxOpenPerUser: 50, maxOpenBytesPerUser: 4 * 1024 * GiB, diskReserveBytes: 0, freeBytes: async () => null, ...limits });
+  async function create(store: UploadRecords, ownerId: string, size: number) {
+    const channelId = (await Episode.findByPk(episodeId))!.channelId;
+    const upload = new Upload({ id: randomBytes(16).toString('hex'), size, offset: 0, metadata: {} });
+    store.bind(upload, { ownerId, channelId, episodeId, stepId: null, kind: 'camera_original', originalName: 'limit.mov', claimedFormat: 'isobmff', clientSha256: null });
+    await store.set(upload.id, upload);
+    return upload.id;
+  }
+  const rowsOf = async (ids: string[]) => ({ uploads: await UploadRecord.count({ where: { id: ids } }), footage: await Footage.count({ where: { uploadId: ids } }) });
+
+  it('when a person already has their limit of unfinished uploads open, the next one is refused with 429 and nothing is written', async () => {
+    const owner = (await newUser(ctx)).userId;
+    const store = records({ maxOpenPerUser: 3 });
+    const ids = [await create(store, owner, 1000), await create(store, owner, 1000), await create(store, owner, 1000)];
+    const refused = await create(store, owner, 1000).catch((e: unknown) => e);
+    expect(refused).toBeInstanceOf(UploadRefusal);
+    expect(refused).toMatchObject({ status_code: 429 });
+    expect((refused as UploadRefusal).body).toMatch(/already have 3 unfinished uploads \(the limit is 3\)/);
+    expect(await rowsOf(ids)).toEqual({ uploads: 3, footage: 3 });
+    expect(await UploadRecord.count({ where: { ownerId: owner } })).toBe(3);
+  });
+
+  it('when a file would eat into the disk reserve once the uploads under way arrive, 507 says so; a smaller file fits', async () => {
+    const owner = (await newUser(ctx)).userId;
+    const pendingBefore = Number((await ctx.sequelize.query<{ b: string }>(`SELECT coalesce(sum(length - "offset"), 0) AS b FROM uploads WHERE completed_at IS NULL AND expires_at > now()`, { type: QueryTypes.SELECT }))[0].b);
+    // Free: what is still to come + 1 GiB reserve + 100 MiB of room.
+    const store = records({ diskReserveBytes: GiB, freeBytes: async () => pendingBefore + GiB + 100 * MiB });
+    const refused = await create(store, owner, 101 * MiB).catch((e: unknown) => e);
+    expect(refused).toMatchObject({ status_code: 507 });
+    expect((refused as UploadRefusal).body).toMatch(/keeps free\. Ask an admin to make room/);
+    expect(await UploadRecord.count({ where: { ownerId: owner } })).toBe(0);
+    const fits = await create(store, owner, 99 * MiB);
+    expect(await rowsOf([fits])).toEqual({ uploads: 1, footage: 1 });
+    // That upload's missing bytes now count: the same 99 MiB no longer fits.
+    expect(await create(store, owner, 99 * MiB).catch((e: unknown) => e)).toMatchObject({ status_code: 507 });
+  });
+});

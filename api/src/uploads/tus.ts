@@ -5,6 +5,7 @@
 // on creation, and on every HEAD/PATCH/DELETE the upload's owner and channel (an upload URL is
 // not a secret). Refusals happen before tus sees the request, so nothing is stored.
 import { randomBytes } from 'node:crypto';
+import { mkdir, statfs } from 'node:fs/promises';
 import { resolve } from 'node:path';
 import { MemoryLocker, Server, type ServerOptions } from '@tus/server';
 import { ERRORS, EVENTS, Metadata, type Locker } from '@tus/utils';
@@ -65,8 +66,25 @@ export interface UploadServerDeps {
 export function createUploadServer(deps: UploadServerDeps) {
   const { env, sequelize } = deps;
   const expiryMs = env.UPLOAD_EXPIRY_HOURS * 3_600_000;
-  const records = new UploadRecords(sequelize, { expiryMs, maxOpenPerUser: env.UPLOAD_MAX_OPEN_PER_USER, maxOpenBytesPerUser: env.UPLOAD_MAX_OPEN_BYTES_PER_USER });
-  const store = new FootageUploadStore({ storageDir: resolve(env.STORAGE_DIR), records, expiryMs });
+  const storageDir = resolve(env.STORAGE_DIR);
+  const freeBytes = async () => {
+    try {
+      await mkdir(storageDir, { recursive: true });
+      const fs = await statfs(storageDir);
+      return fs.bavail * fs.bsize;
+    } catch (err) {
+      console.error(`[uploads] free space of ${storageDir} unknown: ${(err as Error).message}`);
+      return null;
+    }
+  };
+  const records = new UploadRecords(sequelize, {
+    expiryMs,
+    maxOpenPerUser: env.UPLOAD_MAX_OPEN_PER_USER,
+    maxOpenBytesPerUser: env.UPLOAD_MAX_OPEN_BYTES_PER_USER,
+    diskReserveBytes: env.UPLOAD_DISK_RESERVE_BYTES,
+    freeBytes,
+  });
+  const store = new FootageUploadStore({ storageDir, records, expiryMs });
   // MemoryLocker only serialises the requests of one process; the PostgreSQL locker serves several.
   const locker: Locker & { close?: () => Promise<void> } = env.UPLOAD_LOCKER === 'postgres' ? new PgLocker(env.DATABASE_URL) : new MemoryLocker();
   const maxBytes = env.UPLOAD_MAX_BYTES;

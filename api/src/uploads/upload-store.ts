@@ -45,6 +45,10 @@ export interface UploadLimits {
   expiryMs: number;
   maxOpenPerUser: number;
   maxOpenBytesPerUser: number;
+  /** Free space the footage store keeps after every upload under way has arrived. */
+  diskReserveBytes: number;
+  /** Free bytes of the footage store's file system now (null when it cannot be read). */
+  freeBytes: () => Promise<number | null>;
 }
 
 const formatBytes = (n: number) => {
@@ -106,6 +110,21 @@ export class UploadRecords implements KvStore<Upload> {
       }
       if (Number(open.bytes) + length > this.limits.maxOpenBytesPerUser) {
         throw new UploadRefusal(429, `Your unfinished uploads already hold ${formatBytes(Number(open.bytes))}; with this file they would pass your limit of ${formatBytes(this.limits.maxOpenBytesPerUser)}. Finish or cancel some first.`);
+      }
+      // The disk: every upload under way (anyone's) still needs its missing bytes; this one needs all of its own.
+      const free = await this.limits.freeBytes();
+      if (free !== null) {
+        const [pending] = await this.sequelize.query<{ bytes: string }>(
+          `SELECT coalesce(sum(length - "offset"), 0) AS bytes FROM uploads WHERE completed_at IS NULL AND expires_at > now()`,
+          { type: QueryTypes.SELECT, transaction },
+        );
+        const left = free - Number(pending.bytes) - length;
+        if (left < this.limits.diskReserveBytes) {
+          throw new UploadRefusal(
+            507,
+            `The footage store has ${formatBytes(free)} free; with the uploads under way (${formatBytes(Number(pending.bytes))} still to come) this file would leave less than the ${formatBytes(this.limits.diskReserveBytes)} it keeps free. Ask an admin to make room, or wait for uploads to finish.`,
+          );
+        }
       }
       const [[footage]] = (await this.sequelize.query(
         `INSERT INTO footage (channel_id, episode_id, step_id, upload_id, kind, status, uploader_id, original_name, format, size_bytes, storage_key, client_sha256)
