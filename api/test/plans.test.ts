@@ -285,6 +285,27 @@ describe('lighting', () => {
   });
 });
 
+describe('lighting fills the spec sheet', () => {
+  it('writes the Lighting line while it is empty or still the plan’s own text, and keeps a typed value', async () => {
+    const ep = await makeEpisode(channelId);
+    const test = await sweep(ep.id);
+    const lightingOf = (t: TestDto) => t.specLines.find((l) => l.key === 'lighting')!;
+    expect(lightingOf(test).value).toBe('');
+    const put = (version: number, fixtures: unknown[]) =>
+      team.host.put(`/api/tests/${test.id}/lighting`, { version, circuits: [{ key: 'a', label: 'A', volts: 230, breakerAmps: 16 }], fixtures }).expect(200);
+    const first = (await put(test.version, [{ name: 'Fresnel', watts: 650, quantity: 2, circuitKey: 'a' }])).body as TestDto;
+    expect(lightingOf(first).value).toBe('2 × Fresnel 650 W (circuit A) · 1.3 kW in all');
+    // The plan changes: the line follows, since nobody edited it.
+    const second = (await put(first.version, [{ name: 'Fresnel', watts: 650, circuitKey: 'a' }, { name: 'Practical', watts: 60, circuitKey: null }])).body as TestDto;
+    expect(lightingOf(second).value).toBe('Fresnel 650 W (circuit A); Practical 60 W (no circuit yet) · 710 W in all');
+    // Someone types their own: later plan changes leave it alone.
+    const line = lightingOf(second);
+    await team.host.patch(`/api/spec-lines/${line.id}`, { version: line.version, value: 'Window light, bounced' }).expect(200);
+    const third = (await put(second.version, [{ name: 'Panel', watts: 200, circuitKey: 'a' }])).body as TestDto;
+    expect(lightingOf(third).value).toBe('Window light, bounced');
+  });
+});
+
 describe('shot list CSV', () => {
   it('exports every step with RFC 4180 quoting and defused formulas', async () => {
     const ep = await makeEpisode(channelId, 'K9: "noise", part 1');

@@ -42,6 +42,7 @@ export {
 } from './exposure/storage.ts';
 export {
   circuitLoads,
+  lightingLine,
   CONTINUOUS_LOAD_FRACTION,
   ELECTRICAL_SAFETY_NOTE,
   type LightingFixture,

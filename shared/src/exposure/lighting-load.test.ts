@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { InvalidInputError } from '../errors.ts';
-import { circuitLoads, ELECTRICAL_SAFETY_NOTE, type LightingCircuit, type LightingFixture } from './lighting-load.ts';
+import { circuitLoads, ELECTRICAL_SAFETY_NOTE, lightingLine, type LightingCircuit, type LightingFixture } from './lighting-load.ts';
 
 const circuit = (id: string, volts: number, breakerAmps: number): LightingCircuit => ({ id, name: `Circuit ${id}`, volts, breakerAmps });
 const fixture = (id: string, watts: number, circuitId: string | null, extra: Partial<LightingFixture> = {}): LightingFixture => ({
@@ -72,5 +72,13 @@ describe('circuitLoads', () => {
     expect(() => circuitLoads([], [circuit('c1', 120, 20), circuit('c1', 120, 20)])).toThrow(/share the id/);
     expect(() => circuitLoads([fixture('a', 100, 'c1', { powerFactor: 1.2 })], [circuit('c1', 120, 20)])).toThrow(/Power factor/);
     expect(() => circuitLoads([fixture('a', 100, 'c1', { quantity: 0 })], [circuit('c1', 120, 20)])).toThrow(/Quantity/);
+  });
+});
+
+describe('lightingLine', () => {
+  it('writes each fixture with count, watts and circuit, and the total (SI: 1 kW = 1000 W)', () => {
+    expect(lightingLine([{ name: 'Fresnel', watts: 650, quantity: 2, circuit: 'A' }, { name: 'LED panel', watts: 200, circuit: 'B' }])).toBe('2 × Fresnel 650 W (circuit A); LED panel 200 W (circuit B) · 1.5 kW in all');
+    expect(lightingLine([{ name: 'Tube', watts: 72.5, circuit: null }])).toBe('Tube 72.5 W (no circuit yet) · 72.5 W in all');
+    expect(lightingLine([])).toBe('');
   });
 });

@@ -134,3 +134,19 @@ export function circuitLoads(fixtures: LightingFixture[], circuits: LightingCirc
   });
   return { circuits: loads, unassignedFixtureIds, note: ELECTRICAL_SAFETY_NOTE };
 }
+
+/**
+ * The spec sheet's Lighting line written from the lighting plan: each fixture with its count,
+ * watts and circuit, then the total, e.g. "2 × Fresnel 650 W (circuit A); LED panel 200 W
+ * (circuit B) · 1.5 kW in all". Empty when there are no fixtures.
+ */
+export function lightingLine(fixtures: readonly { name: string; watts: number; quantity?: number; circuit: string | null }[]): string {
+  if (fixtures.length === 0) return '';
+  const watts = (w: number) => (w >= 1000 ? `${Number((w / 1000).toFixed(2))} kW` : `${Number(w.toFixed(1))} W`);
+  const parts = fixtures.map((f) => {
+    const n = f.quantity ?? 1;
+    return `${n > 1 ? `${n} × ` : ''}${f.name} ${watts(f.watts)} (${f.circuit === null ? 'no circuit yet' : `circuit ${f.circuit}`})`;
+  });
+  const total = fixtures.reduce((sum, f) => sum + f.watts * (f.quantity ?? 1), 0);
+  return `${parts.join('; ')} · ${watts(total)} in all`;
+}

@@ -7,6 +7,7 @@ import { Episode, LightingCircuit, LightingFixture, SpecSheetLine, Test, TestSte
 import {
   ROLE_VALUES,
   TEST_KIND_LABELS,
+  lightingLine,
   planSteps,
   specSheetDraftsFor,
   type CreateSpecLineInput,
@@ -181,10 +182,15 @@ export class PlansService {
     });
   }
 
-  /** Replaces the test's lighting (circuits and the fixtures on them). */
+  /**
+   * Replaces the test's lighting (circuits and the fixtures on them). The spec sheet's Lighting
+   * line follows it while the line is empty or still says what the previous lighting plan wrote;
+   * a value someone typed is kept.
+   */
   async setLighting(testId: string, actor: Actor, input: LightingInput): Promise<TestDto> {
     return this.sequelize.transaction(async (transaction) => {
       const test = await this.lockTest(testId, input.version, transaction);
+      const before = await this.lightingLineOf(testId, transaction);
       await LightingFixture.destroy({ where: { testId }, transaction });
       await LightingCircuit.destroy({ where: { testId }, transaction });
       const idOfKey = new Map<string, string>();
@@ -197,6 +203,11 @@ export class PlansService {
         { transaction },
       );
       await test.update({ version: test.version + 1 }, { transaction });
+      const line = await SpecSheetLine.findOne({ where: { testId, key: 'lighting' }, transaction, lock: transaction.LOCK.UPDATE });
+      if (line && (line.value.trim() === '' || line.value === before)) {
+        const value = await this.lightingLineOf(testId, transaction);
+        if (value !== line.value) await line.update({ value, version: line.version + 1 }, { transaction });
+      }
       const watts = input.fixtures.reduce((sum, f) => sum + f.watts * f.quantity, 0);
       await recordActivity(
         { channelId: actor.channelId, actorId: actor.userId, subjectType: 'test', subjectId: test.id, episodeId: test.episodeId, action: 'test.lighting_updated', details: { circuits: input.circuits.length, fixtures: input.fixtures.length, watts } },
@@ -204,6 +215,14 @@ export class PlansService {
       );
       return (await loadTest(test.id, transaction))!;
     });
+  }
+
+  /** The Lighting line the test's saved fixtures give (see lightingLine), '' without fixtures. */
+  private async lightingLineOf(testId: string, transaction: Transaction): Promise<string> {
+    const circuits = await LightingCircuit.findAll({ where: { testId }, transaction });
+    const fixtures = await LightingFixture.findAll({ where: { testId }, order: [['position', 'ASC']], transaction });
+    const label = new Map(circuits.map((c) => [c.id, c.label]));
+    return lightingLine(fixtures.map((f) => ({ name: f.name, watts: Number(f.watts), quantity: f.quantity, circuit: f.circuitId ? (label.get(f.circuitId) ?? null) : null })));
   }
 
   /** Adds a custom spec-sheet line at the end of the sheet. */
