@@ -9,7 +9,7 @@ import { promisify } from 'node:util';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Footage, Readout } from '@midgray/db';
-import type { CompareDto, NoiseResults, ReadoutDto, RecoveryResults, RunReadoutsResultDto, TestDto, TestReadoutsDto } from '@midgray/shared';
+import { mixedSettingsNote, type CompareDto, type NoiseResults, type ReadoutDto, type RecoveryResults, type RunReadoutsResultDto, type TestDto, type TestReadoutsDto } from '@midgray/shared';
 import { Jobs } from '../src/jobs/jobs.ts';
 import { READOUT_STALE_HOURS, registerReadoutJob, sweepStaleReadouts } from '../src/modules/readouts/readout-job.ts';
 import { synthChartFrame, type SynthChartOptions } from '../src/modules/readouts/measure/index.ts';
@@ -136,7 +136,7 @@ describe('noise readouts of an ISO sweep', () => {
     expect(s100.latest!.footageName).toBe('sweep-iso100.png');
     expect(s100.latest!.requestedBy?.id).toBe(team.editor.userId);
     // The verdict with the channel's default threshold, shown with it.
-    expect(t.verdict).toMatchObject({ kind: 'noise', ceilingIso: 100, stepsMeasured: 2, stepsTotal: 5, thresholds: { snrThresholdDb: 20, deltaEThreshold: 2.5 } });
+    expect(t.verdict).toMatchObject({ kind: 'noise', ceilingIso: 100, stepsMeasured: 2, stepsTotal: 5, mixedSettings: [], thresholds: { snrThresholdDb: 20, deltaEThreshold: 2.5 } });
     expect(t.test.readoutRegion).toEqual(region);
     first = s100.latest!;
 
@@ -163,6 +163,9 @@ describe('noise readouts of an ISO sweep', () => {
     expect(after!.results).toEqual(before!.results);
     expect(after!.params).toEqual(before!.params);
     expect(await Readout.count({ where: { stepId: iso100.id } })).toBe(2);
+    // That step is now measured on a grid over the whole chart, the others on the saved region: the verdict says so.
+    expect(t.verdict.mixedSettings).toEqual(['region', 'grid']);
+    expect(mixedSettingsNote(t.verdict.mixedSettings)).toBe('The steps were measured with different region, patch grid: run the readouts again on the whole test so every step is measured the same way.');
   });
 
   it('when the channel raises its SNR threshold, then the ceiling follows and is shown with the new threshold', async () => {

@@ -245,6 +245,24 @@ export interface ReadoutVerdict {
   /** Steps with a done readout of `kind`, of all steps. */
   stepsMeasured: number;
   stepsTotal: number;
+  /** Settings in which the measured steps' latest readouts differ (empty when all were measured alike). */
+  mixedSettings: MixedReadoutSetting[];
+}
+
+/** Readout settings that must agree across a test's steps for their figures to be compared. */
+export const COMPARED_READOUT_SETTINGS = ['region', 'grid', 'transfer', 'referenceTransfer', 'stride'] as const;
+export type MixedReadoutSetting = (typeof COMPARED_READOUT_SETTINGS)[number];
+const SETTING_WORDS: Record<MixedReadoutSetting, string> = { region: 'region', grid: 'patch grid', transfer: 'transfer curve', referenceTransfer: 'reference transfer curve', stride: 'sampling stride' };
+
+/** Which compared settings differ among these readouts' parameters. */
+export function mixedReadoutSettings(params: readonly ReadoutParams[]): MixedReadoutSetting[] {
+  return COMPARED_READOUT_SETTINGS.filter((k) => new Set(params.map((p) => JSON.stringify(p[k] ?? null))).size > 1);
+}
+
+/** The warning shown beside a verdict whose steps were measured differently, with its fix; null when none. */
+export function mixedSettingsNote(mixed: readonly MixedReadoutSetting[]): string | null {
+  if (mixed.length === 0) return null;
+  return `The steps were measured with different ${mixed.map((k) => SETTING_WORDS[k]).join(', ')}: run the readouts again on the whole test so every step is measured the same way.`;
 }
 
 export interface TestReadoutsDto {

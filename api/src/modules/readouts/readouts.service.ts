@@ -8,6 +8,7 @@ import { QueryTypes, type Sequelize } from 'sequelize';
 import {
   ROLE_PERMISSIONS,
   curvePoint,
+  mixedReadoutSettings,
   readoutKindForTest,
   TEST_KIND_LABELS,
   type ComparableTestDto,
@@ -114,7 +115,8 @@ export function verdictOf(kind: ReadoutKind, steps: ReadonlyArray<{ step: StepRo
       thresholds.deltaEThreshold,
     );
   }
-  return { kind, thresholds, ceilingIso: ceiling, latitudeWindow: window, stepsMeasured: measured.length, stepsTotal: steps.length };
+  const mixedSettings = mixedReadoutSettings(measured.map((s) => s.latest!.params));
+  return { kind, thresholds, ceilingIso: ceiling, latitudeWindow: window, stepsMeasured: measured.length, stepsTotal: steps.length, mixedSettings };
 }
 
 export class ReadoutsService {

@@ -11,6 +11,7 @@ const verdict = (v: Partial<ReadoutVerdict>): ReadoutVerdict => ({
   latitudeWindow: null,
   stepsMeasured: 3,
   stepsTotal: 5,
+  mixedSettings: [],
   ...v,
 });
 

@@ -4,7 +4,7 @@
 // comparison can be shared with the team.
 import { lazy, Suspense, useMemo } from 'react';
 import { Link, useSearchParams } from 'react-router-dom';
-import { TEST_KIND_LABELS, type CompareDto, type TestKind } from '@midgray/shared';
+import { mixedSettingsNote, TEST_KIND_LABELS, type CompareDto, type TestKind } from '@midgray/shared';
 import { ErrorNote, Loading, PageHeader, Panel } from '../../../components/ui/page.tsx';
 import { useCurrentChannel } from '../../channels/current-channel.tsx';
 import { useCompare, useComparableTests } from '../api/readouts.ts';
@@ -113,6 +113,11 @@ function Comparison({ data }: { data: CompareDto }) {
             <p className="text-xs text-ink-soft">
               {s.verdict.stepsMeasured} of {s.verdict.stepsTotal} steps measured
             </p>
+            {mixedSettingsNote(s.verdict.mixedSettings) && (
+              <p className="mt-1 text-xs text-warn" role="note">
+                {mixedSettingsNote(s.verdict.mixedSettings)}
+              </p>
+            )}
           </article>
         ))}
       </section>

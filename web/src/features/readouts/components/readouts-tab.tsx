@@ -3,7 +3,7 @@
 // frames, the measuring region, and for brackets the reference/recovered frames.
 import { lazy, Suspense, useState } from 'react';
 import { Link } from 'react-router-dom';
-import { TEST_KIND_LABELS, type ReadoutGrid, type StepReadoutsDto, type TestReadoutsDto } from '@midgray/shared';
+import { mixedSettingsNote, TEST_KIND_LABELS, type ReadoutGrid, type StepReadoutsDto, type TestReadoutsDto } from '@midgray/shared';
 import type { EpisodeTabProps } from '../../../app/episode-tabs.tsx';
 import { Button } from '../../../components/ui/button.tsx';
 import { SelectField, TextField } from '../../../components/ui/field.tsx';
@@ -144,6 +144,11 @@ function VerdictPanel({ test }: { test: TestReadoutsDto }) {
         <p className="text-xs text-ink-muted">
           Threshold: <strong className="font-semibold text-ink-soft">{v.kind === 'noise' ? `SNR ${v.thresholds.snrThresholdDb} dB` : `ΔE00 ${v.thresholds.deltaEThreshold}`}</strong>. {thresholdSource(v.kind, v.thresholds)}
         </p>
+        {mixedSettingsNote(v.mixedSettings) && (
+          <p className="rounded-md bg-warn-soft px-2 py-1 text-sm text-warn" role="note">
+            {mixedSettingsNote(v.mixedSettings)}
+          </p>
+        )}
       </div>
       <div className="flex flex-col gap-1 border-t border-line pt-3 md:border-t-0 md:border-l md:pt-0 md:pl-4">
         <p className="text-xs font-semibold tracking-wide text-ink-muted uppercase">The host’s verdict</p>
