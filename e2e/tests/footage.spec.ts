@@ -5,7 +5,7 @@ import { createHash, randomBytes } from 'node:crypto';
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { DEMO, allowHttpError, episodeId, expect, signInAs, test } from '../fixtures/app.ts';
-import { checkA11y } from '../fixtures/look.ts';
+import { checkA11y, shoot } from '../fixtures/look.ts';
 import { resetDemo } from '../fixtures/reset.ts';
 
 // The journeys build on each other (upload, then pickup) on a freshly seeded demo.
@@ -27,10 +27,11 @@ test('A host uploads a clip through the dashboard, watches its progress and sees
   await expect(page.getByRole('region', { name: 'Upload footage' })).toBeVisible();
   await page.getByLabel('What are these files?').selectOption('camera_original');
 
-  // Slow the upload down so the progress can be seen and paused (256 KiB/s: about ten seconds).
+  // Slow the upload down so the progress, speed and time left can be seen and paused
+  // (128 KiB/s, that is 131 kB/s: about twenty seconds).
   const cdp = await page.context().newCDPSession(page);
   await cdp.send('Network.enable');
-  await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: 256 * 1024 });
+  await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 20, downloadThroughput: -1, uploadThroughput: 128 * 1024 });
 
   await page.locator('.uppy-Dashboard-input').first().setInputFiles(clip);
   // The browser's checksum, computed in a worker, equals the file's.
@@ -39,11 +40,32 @@ test('A host uploads a clip through the dashboard, watches its progress and sees
   const status = page.locator('.uppy-StatusBar');
   await expect(status).toContainText(/Uploading/);
   await expect(status).toContainText(/%/);
+  // The file's own speed (SI units, smoothed) and time left, listed under the dashboard.
+  const upload = page.getByRole('region', { name: 'Upload footage' });
+  const transfer = upload.getByRole('list', { name: 'Transfers' }).getByRole('listitem').filter({ hasText: 'A007_C003_recorder.mp4' });
+  await expect(transfer).toContainText(/\d+(\.\d)? kB\/s/, { timeout: 15_000 });
+  await expect(transfer).toContainText(/about \d+ (s|min)( \d+ s)? left/);
+  // Near the throttle's 131 kB/s (bursts smoothed out), not bytes per second read as kilobytes nor KiB as kB.
+  const kilobytesPerSecond = Number((await transfer.textContent())!.match(/(\d+(?:\.\d)?) kB\/s/)![1]);
+  expect(kilobytesPerSecond).toBeGreaterThan(30);
+  expect(kilobytesPerSecond).toBeLessThan(600);
+  await shoot(page, info, 'uploading');
+  // A screen reader hears the quarters, sparingly, from a polite live region.
+  const live = upload.getByRole('status', { name: 'Upload announcements' });
+  await expect(live).toHaveAttribute('aria-live', 'polite');
+  // (At 131 kB/s 25 % comes about 5 s in and 50 % about 5 s later: the pause below falls in between.)
+  await expect(live).toHaveText(/^A007_C003_recorder\.mp4: 25 % sent, about \d+ (s|min)( \d+ s)? left$/, { timeout: 20_000 });
   // Pause, then resume: tus continues from the server's offset.
   await page.getByRole('button', { name: 'Pause', exact: true }).click();
   await expect(status).toContainText(/Paused/);
+  await expect(transfer).toContainText('paused');
+  await expect(transfer).not.toContainText(/B\/s|left/);
+  await expect(live).toHaveText('A007_C003_recorder.mp4 paused');
   await page.getByRole('button', { name: 'Resume', exact: true }).click();
+  await expect(live).toHaveText('A007_C003_recorder.mp4 resumed');
   await expect(status).toContainText(/Complete/, { timeout: 45_000 });
+  await expect(transfer).toContainText('done');
+  await expect(live).toHaveText('A007_C003_recorder.mp4 uploaded');
   await cdp.send('Network.emulateNetworkConditions', { offline: false, latency: 0, downloadThroughput: -1, uploadThroughput: -1 });
 
   // The table shows the file, then its checks: verified, probed, with both checksums.

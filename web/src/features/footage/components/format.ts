@@ -1,4 +1,5 @@
-// How footage numbers read in the table: bytes with binary prefixes (IEC 80000-13), durations as m:ss.
+// How footage numbers read in the table: bytes with binary prefixes (IEC 80000-13), durations as m:ss
+// (upload speeds, in SI units, are in ../upload-rate.ts).
 
 /** Returns "1.4 GiB", "820 MiB", "12 KiB", "512 bytes". */
 export function formatBytes(bytes: number): string {
@@ -21,6 +22,3 @@ export function formatDuration(seconds: number | null | undefined): string {
   const sec = String(s % 60).padStart(2, '0');
   return h ? `${h}:${String(m).padStart(2, '0')}:${sec}` : `${m}:${sec}`;
 }
-
-/** Returns a transfer rate: "38.2 MiB/s". */
-export const formatRate = (bytesPerSecond: number) => `${formatBytes(bytesPerSecond)}/s`;

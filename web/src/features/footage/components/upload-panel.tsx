@@ -1,7 +1,8 @@
 // The upload area: what the files are and which test step they belong to, then an Uppy dashboard
-// that sends them over tus to /api/uploads (progress, speed, time left, pause and resume; a file
-// added again after a reload resumes from the server's offset). Each file's SHA-256 is computed
-// in a web worker meanwhile and sent with the upload, or right after it when hashing finishes later.
+// that sends them over tus to /api/uploads (progress, pause and resume; a file added again after a
+// reload resumes from the server's offset), with each file's own speed and time left listed below.
+// Each file's SHA-256 is computed in a web worker meanwhile and sent with the upload, or right after
+// it when hashing finishes later.
 import '@uppy/core/css/style.min.css';
 import '@uppy/dashboard/css/style.min.css';
 import { useQueryClient } from '@tanstack/react-query';
@@ -15,7 +16,9 @@ import { Panel } from '../../../components/ui/page.tsx';
 import { getCsrfToken } from '../../../lib/api-client.ts';
 import { footageListQueryOptions, sendClientChecksum } from '../api/footage.ts';
 import { sha256OfFile } from '../hash/sha256.ts';
+import { useTransfers } from '../hooks/use-transfers.ts';
 import { formatBytes } from './format.ts';
+import { TransferList } from './transfer-list.tsx';
 
 type FileMeta = { episodeId?: string; kind?: FootageKind; stepId?: string; sha256?: string; name?: string; type?: string };
 type FootageUppy = Uppy<FileMeta, Record<string, never>>;
@@ -153,6 +156,7 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
     for (const f of uppy.getFiles()) if (!f.progress.uploadStarted) uppy.setFileMeta(f.id, { kind, stepId });
   }, [uppy, kind, stepId, maxFileBytes]);
 
+  const { transfers, announcement } = useTransfers(uppy);
   const checksumRows = Object.entries(sums);
   return (
     <Panel title="Upload footage">
@@ -183,6 +187,7 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
           note={`Up to ${formatBytes(maxFileBytes)} per file. Interrupted? Add the same file again: it continues where it stopped.`}
         />
       )}
+      <TransferList transfers={transfers} announcement={announcement} />
       {checksumRows.length > 0 && (
         <div className="mt-3" aria-label="Checksums">
           <h3 className="text-sm font-semibold">SHA-256 computed in your browser</h3>
