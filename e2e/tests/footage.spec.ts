@@ -50,6 +50,7 @@ test('A host uploads a clip through the dashboard, watches its progress and sees
   expect(kilobytesPerSecond).toBeGreaterThan(30);
   expect(kilobytesPerSecond).toBeLessThan(600);
   await shoot(page, info, 'uploading');
+  await checkA11y(page, 'footage tab during an upload');
   // A screen reader hears the quarters, sparingly, from a polite live region.
   const live = upload.getByRole('status', { name: 'Upload announcements' });
   await expect(live).toHaveAttribute('aria-live', 'polite');

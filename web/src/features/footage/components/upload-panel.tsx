@@ -5,6 +5,7 @@
 // it when hashing finishes later.
 import '@uppy/core/css/style.min.css';
 import '@uppy/dashboard/css/style.min.css';
+import './upload-panel.css';
 import { useQueryClient } from '@tanstack/react-query';
 import Uppy, { type UppyFile } from '@uppy/core';
 import Dashboard from '@uppy/react/dashboard';
@@ -156,6 +157,19 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
     for (const f of uppy.getFiles()) if (!f.progress.uploadStarted) uppy.setFileMeta(f.id, { kind, stepId });
   }, [uppy, kind, stepId, maxFileBytes]);
 
+  // With a single file the upload widget draws its file as a list item outside any list (a
+  // role="list" is missing on that path of its own markup); give the container the role it lacks.
+  const dashboardBox = useRef<HTMLDivElement>(null);
+  useEffect(() => {
+    const box = dashboardBox.current;
+    if (!box) return;
+    const mend = () => box.querySelectorAll('.uppy-Dashboard-files:not([role])').forEach((el) => el.setAttribute('role', 'list'));
+    mend();
+    const watch = new MutationObserver(mend);
+    watch.observe(box, { childList: true, subtree: true });
+    return () => watch.disconnect();
+  }, [uppy]);
+
   const { transfers, announcement } = useTransfers(uppy);
   const checksumRows = Object.entries(sums);
   return (
@@ -177,16 +191,19 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
           ))}
         </SelectField>
       </div>
-      {uppy && (
-        <Dashboard
-          uppy={uppy}
-          width="100%"
-          height={320}
-          hideProgressDetails={false}
-          proudlyDisplayPoweredByUppy={false}
-          note={`Up to ${formatBytes(maxFileBytes)} per file. Interrupted? Add the same file again: it continues where it stopped.`}
-        />
-      )}
+      <div ref={dashboardBox}>
+        {uppy && (
+          <Dashboard
+            uppy={uppy}
+            width="100%"
+            height={320}
+            // Each file's own speed and time left are listed below; the widget's overall estimate would disagree with them.
+            hideProgressDetails
+            proudlyDisplayPoweredByUppy={false}
+            note={`Up to ${formatBytes(maxFileBytes)} per file. Interrupted? Add the same file again: it continues where it stopped.`}
+          />
+        )}
+      </div>
       <TransferList transfers={transfers} announcement={announcement} />
       {checksumRows.length > 0 && (
         <div className="mt-3" aria-label="Checksums">
