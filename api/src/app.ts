@@ -23,6 +23,7 @@ import { registerMailboxRoutes } from './modules/dev/mailbox.router.ts';
 import { registerHealthRoutes } from './modules/health/health.router.ts';
 import { registerPlanRoutes } from './modules/plans/plans.router.ts';
 import { registerPublishingRoutes } from './modules/publishing/publishing.router.ts';
+import { approvalRequestOnEntry } from './modules/publishing/slots.service.ts';
 import { PlansService } from './modules/plans/plans.service.ts';
 import { ApiRoutes, type RouteInfo } from './routing.ts';
 import { Jobs } from './jobs/jobs.ts';
@@ -140,10 +141,12 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): BuiltApp {
     channels: new ChannelsService(sequelize, mailer, env.PUBLIC_URL),
     inviteLimiter: limiter(opts.invitesPerHour ?? 60, 3_600_000, 'invitations'),
   });
-  registerEpisodeRoutes(routes, { episodes: new EpisodesService(sequelize) });
+  const mail = { sequelize, mailer, publicUrl: env.PUBLIC_URL };
+  // Episodes know nothing of publishing: the "approval requested" mail hears board moves through this listener.
+  registerEpisodeRoutes(routes, { episodes: new EpisodesService(sequelize, { afterMove: approvalRequestOnEntry(mail) }) });
   registerGearRoutes(routes, { gear: new GearService(sequelize) });
   registerPlanRoutes(routes, { plans: new PlansService(sequelize) });
-  registerPublishingRoutes(routes, { sequelize, mailer, publicUrl: env.PUBLIC_URL, jobs, footageEvents: footage.events });
+  registerPublishingRoutes(routes, { ...mail, jobs, footageEvents: footage.events });
   if (env.FAKES) registerMailboxRoutes(routes, { mailboxDir: resolve(env.MAILBOX_DIR) });
   registerFootageRoutes(routes, { footage });
   registerReadoutJob(jobs, { sequelize, storageDir: uploads.store.root });

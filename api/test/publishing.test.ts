@@ -2,7 +2,7 @@
 // and disclosure checks, with time zones applied), the approval queue, marking live, the
 // notification e-mails with opt-outs, the calendar and the private iCalendar feed.
 import ical, { type VEvent } from 'node-ical';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
 import { Activity, Channel, Description, Episode, EpisodeGear, Gear, Membership, PublishSlot, User } from '@midgray/db';
 import {
   checkStageMove,
@@ -14,7 +14,9 @@ import {
 } from '@midgray/shared';
 import { notifyFootageReady, type MailDeps } from '../src/mail/notifications.ts';
 import { sendGearDueBackReminders } from '../src/jobs/gear-due-back.ts';
+import { EpisodesService } from '../src/modules/episodes/episodes.service.ts';
 import { publishingFacts } from '../src/modules/publishing/publishing.repository.ts';
+import { approvalRequestOnEntry } from '../src/modules/publishing/slots.service.ts';
 import { channelWithTeam, newUser, startTestApp, type Client, type TestContext } from './helpers.ts';
 import { attachGear, daysFromNow, proposedSlot, publishingEpisode } from './publishing-fixtures.ts';
 
@@ -51,6 +53,20 @@ async function setup(stage: Episode['stage'] = 'approval', channelOpts: { defaul
 
 function propose(client: Client, episodeId: string, date: string, time: string, zone: string) {
   return client.post(`/api/episodes/${episodeId}/slots`, { date, time, zone });
+}
+
+/** A board move of `episodeId` to `toStage`, at the top unless given (the episode's current version unless given), answered with `status`. */
+async function boardMove(client: Client, episodeId: string, toStage: Episode['stage'], status: number, opts: { version?: number; reason?: string; toIndex?: number } = {}) {
+  const version = opts.version ?? (await Episode.findByPk(episodeId))!.version;
+  return client.post(`/api/episodes/${episodeId}/move`, { toStage, toIndex: opts.toIndex ?? 0, version, ...(opts.reason ? { reason: opts.reason } : {}) }).expect(status);
+}
+
+/** A Grade episode that may go to Approval: a description draft and the host's slot, 2 May 18:30 in Berlin. */
+async function readyInGrade() {
+  const t = await setup('grade');
+  await t.team.editor.put(`/api/episodes/${t.episode.id}/description`, { version: 0, summary: 'Noise at every ISO step.', chapters: [], gearLinks: [], disclosure: '' }).expect(200);
+  await propose(t.team.host, t.episode.id, MAY2, '18:30', 'Europe/Berlin').expect(201);
+  return t;
 }
 
 describe('the description', () => {
@@ -180,9 +196,120 @@ describe('proposing publish slots', () => {
     expect(mail.text).toContain('http://127.0.0.1:4999/profile');
     expect(mail.html).toContain(channel.name);
     expect(mail.html).toContain(`href="http://127.0.0.1:4999/episodes/${episode.id}?tab=schedule"`);
-    // Not the host, who proposed it, nor the editor.
+    // Once, and not the host, who proposed it, nor the editor.
+    expect(await mailsTo(team.producer.email)).toHaveLength(1);
     expect(await mailsTo(team.host.email)).toEqual([]);
     expect(await mailsTo(team.editor.email)).toEqual([]);
+  });
+});
+
+describe('sending an episode to Approval on the board', () => {
+  it('when an editor moves it from Grade to Approval, then every producer who has not opted out gets the approval request once, with both parts', async () => {
+    const { team, episode, channel, channelId } = await readyInGrade();
+    const second = await newUser(ctx, 'Second Producer');
+    await Membership.create({ channelId, userId: second.userId, role: 'producer' });
+    const quiet = await newUser(ctx, 'Quiet Producer');
+    await Membership.create({ channelId, userId: quiet.userId, role: 'producer' });
+    await quiet.put('/api/me/email-preferences', { optOuts: ['approval_requested'] }).expect(200);
+    // Proposing in Grade asks nobody yet: the episode is not in the approval queue.
+    expect(await mailsTo(team.producer.email)).toEqual([]);
+
+    const moved = await boardMove(team.editor, episode.id, 'approval', 200);
+    expect(moved.body.stage).toBe('approval');
+    for (const producer of [team.producer, second]) {
+      const mails = await mailsTo(producer.email);
+      expect(mails).toHaveLength(1);
+      const [mail] = mails;
+      expect(mail.subject).toBe(`Approval requested: ${episode.title}`);
+      // Berlin is UTC+2 in May; the slot reads as the host entered it.
+      expect(mail.text).toContain(`Test host proposed ${MAY2} 18:30 Europe/Berlin for “${episode.title}”.`);
+      expect(mail.text).toContain('Test editor moved the episode to Approval on the board.');
+      expect(mail.text).toContain(channel.name);
+      expect(mail.text).toContain(`http://127.0.0.1:4999/episodes/${episode.id}?tab=schedule`);
+      expect(mail.html).toContain(channel.name);
+      expect(mail.html).toContain(`${MAY2} 18:30 Europe/Berlin`);
+      expect(mail.html).toContain('moved the episode to Approval on the board.');
+      expect(mail.html).toContain(`href="http://127.0.0.1:4999/episodes/${episode.id}?tab=schedule"`);
+    }
+    expect(await mailsTo(quiet.email)).toEqual([]);
+    expect(await mailsTo(team.host.email)).toEqual([]);
+    expect(await mailsTo(team.editor.email)).toEqual([]);
+
+    // A reorder inside the Approval column is no new entry: nothing more.
+    await publishingEpisode(channelId, { stage: 'approval', title: 'Another in Approval' });
+    const reordered = await boardMove(team.producer, episode.id, 'approval', 200, { toIndex: 1 });
+    expect(reordered.body).toMatchObject({ stage: 'approval', position: 1 });
+    expect(await mailsTo(team.producer.email)).toHaveLength(1);
+  });
+
+  it('when the move is refused (a rule unmet, a stale version), then nothing is moved and nobody is mailed', async () => {
+    const { team, episode } = await setup('grade');
+    await propose(team.host, episode.id, MAY2, '18:30', 'Europe/Berlin').expect(201);
+    const noDraft = await boardMove(team.editor, episode.id, 'approval', 422);
+    expect(noDraft.body.error.details.missing).toEqual(['No description draft yet']);
+    await team.editor.put(`/api/episodes/${episode.id}/description`, { version: 0, summary: 'Draft.', chapters: [], gearLinks: [], disclosure: '' }).expect(200);
+    const current = (await Episode.findByPk(episode.id))!.version;
+    const stale = await boardMove(team.editor, episode.id, 'approval', 409, { version: current + 1 });
+    expect(stale.body.error.code).toBe('stale_version');
+    expect((await Episode.findByPk(episode.id))!.stage).toBe('grade');
+    expect(await Activity.count({ where: { episodeId: episode.id, action: 'episode.moved' } })).toBe(0);
+    expect(await mailsTo(team.producer.email)).toEqual([]);
+    expect(await mailsTo(team.admin.email)).toEqual([]);
+    // The same move with the version the board shows goes through, and asks once.
+    await boardMove(team.editor, episode.id, 'approval', 200);
+    expect((await mailsTo(team.producer.email)).map((m) => m.subject)).toEqual([`Approval requested: ${episode.title}`]);
+  });
+
+  it('asks once per slot put before the producers: a proposal in Approval asks for itself, a late listener for an earlier entry sends nothing more, a new entry asks again', async () => {
+    const { team, episode } = await readyInGrade();
+    await boardMove(team.editor, episode.id, 'approval', 200);
+    expect(await mailsTo(team.producer.email)).toHaveLength(1);
+    // A new slot proposed while in Approval: its own request (the propose path), naming the new time.
+    await propose(team.editor, episode.id, `${Y}-05-09`, '17:00', 'Europe/Berlin').expect(201);
+    const afterPropose = await mailsTo(team.producer.email);
+    expect(afterPropose).toHaveLength(2);
+    expect(afterPropose[0].text).toContain(`Test editor proposed ${Y}-05-09 17:00 Europe/Berlin`);
+    expect(afterPropose[0].text).not.toContain('moved the episode to Approval');
+    // The first move's listener running only now (as when the proposal won the race) finds the new
+    // slot younger than the entry and sends nothing: that slot was already asked for.
+    await approvalRequestOnEntry(mailDeps)({ episodeId: episode.id, channelId: episode.channelId, actorId: team.editor.userId, from: 'grade', to: 'approval' });
+    expect(await mailsTo(team.producer.email)).toHaveLength(2);
+    // Back to Grade and into Approval again: a new entry, a new request for the slot it takes along.
+    await boardMove(team.producer, episode.id, 'grade', 200, { reason: 'The grade needs another pass' });
+    expect(await mailsTo(team.producer.email)).toHaveLength(2);
+    await boardMove(team.editor, episode.id, 'approval', 200);
+    const [latest, ...rest] = await mailsTo(team.producer.email);
+    expect(rest).toHaveLength(2);
+    expect(latest.text).toContain(`Test editor proposed ${Y}-05-09 17:00 Europe/Berlin`);
+    expect(latest.text).toContain('Test editor moved the episode to Approval on the board.');
+  });
+
+  it('when a Scheduled episode is moved back to Approval, then nobody is asked: its slot is already approved', async () => {
+    const { team, episode } = await setup('approval');
+    const s = (await propose(team.host, episode.id, MAY2, '17:00', 'Europe/Berlin').expect(201)).body as EpisodeSchedule;
+    await team.producer.post(`/api/slots/${s.current!.id}/approve`, {}).expect(200);
+    expect((await Episode.findByPk(episode.id))!.stage).toBe('scheduled');
+    await boardMove(team.producer, episode.id, 'approval', 200, { reason: 'Hold it for the description check' });
+    expect((await mailsTo(team.producer.email)).map((m) => m.subject)).toEqual([`Approval requested: ${episode.title}`]);
+  });
+
+  it('when the after-move listener fails, then the failure is logged and the move stands', async () => {
+    const { team, episode, channelId } = await readyInGrade();
+    const episodes = new EpisodesService(ctx.sequelize, {
+      afterMove: () => {
+        throw new Error('mail relay refused the connection');
+      },
+    });
+    const logged = vi.spyOn(console, 'error').mockImplementation(() => {});
+    try {
+      const version = (await Episode.findByPk(episode.id))!.version;
+      const moved = await episodes.move({ userId: team.editor.userId, channelId, role: 'editor' }, episode.id, { toStage: 'approval', toIndex: 0, version });
+      expect(moved).toMatchObject({ stage: 'approval', version: version + 1 });
+      expect(logged).toHaveBeenCalledWith(`[episodes] after-move listener failed for ${episode.id}:`, 'mail relay refused the connection');
+    } finally {
+      logged.mockRestore();
+    }
+    expect((await Episode.findByPk(episode.id))!.stage).toBe('approval');
   });
 });
 
@@ -391,6 +518,15 @@ describe('e-mail kinds and opt-outs', () => {
     await propose(team.host, episode.id, MAY2, '11:00', 'UTC').expect(201);
     expect(await mailsTo(team.producer.email)).toEqual([]);
     expect((await mailsTo(second.email)).map((m) => m.subject)).toEqual([`Approval requested: ${episode.title}`]);
+  });
+
+  it('when the only producer opted out of approval requests, then a board move into Approval mails nobody (not the admins either)', async () => {
+    const { team, episode } = await readyInGrade();
+    await team.producer.put('/api/me/email-preferences', { optOuts: ['approval_requested'] }).expect(200);
+    await boardMove(team.editor, episode.id, 'approval', 200);
+    expect((await Episode.findByPk(episode.id))!.stage).toBe('approval');
+    expect(await mailsTo(team.producer.email)).toEqual([]);
+    expect(await mailsTo(team.admin.email)).toEqual([]);
   });
 
   it('when a host opts out of decisions, then the editor is told and the host is not', async () => {

@@ -2,7 +2,7 @@
 // the recorder episode (in Shoot) and uploaded a camera original; the editor gets the "ready for
 // pickup" mail, uploads a clip and a frame grab per step (made here with ffmpeg and sharp), sees
 // them verified and probed, picks up footage, runs the readouts, writes chapters and moves the
-// episode on to Approval (through Grade, with a proposed publish slot).
+// episode on to Approval (through Grade, with a proposed publish slot); the producer is mailed.
 import { execFileSync } from 'node:child_process';
 import { mkdirSync } from 'node:fs';
 import { join } from 'node:path';
@@ -148,4 +148,16 @@ test('An editor gets the pickup mail, uploads a clip and a frame per step, picks
   await expect(page.getByRole('region', { name: 'Activity' }).getByText(/moved it from Grade to Approval/)).toBeVisible();
   await checkA11y(page, 'episode in approval (editor)');
   await shoot(page, info, 'in-approval');
+  await page.getByRole('button', { name: 'Sign out' }).click();
+  await page.waitForURL('**/sign-in');
+
+  // The producer's "approval requested" mail: one, naming the proposed slot and the move.
+  const mails = (await (await page.request.get('/api/dev/mailbox')).json()) as { subject: string; to: string[] }[];
+  expect(mails.filter((m) => m.subject === `Approval requested: ${TITLE}` && m.to.includes(DEMO.producer.email))).toHaveLength(1);
+  await page.goto('/mailbox');
+  await page.getByRole('button', { name: new RegExp(`Approval requested: ${TITLE}.*to ${DEMO.producer.email}`) }).click();
+  await expect(page.getByText(new RegExp(`${DEMO.editor.name} proposed ${inTwoWeeks} 17:00 \\S+ for “${TITLE}”\\.`))).toBeVisible();
+  await expect(page.getByText(`${DEMO.editor.name} moved the episode to Approval on the board.`)).toBeVisible();
+  await checkA11y(page, 'mailbox (approval request)');
+  await shoot(page, info, 'approval-request-mail');
 });

@@ -116,11 +116,15 @@ async function slotFacts(sequelize: Sequelize, slotId: string): Promise<SlotMail
 
 /**
  * "Approval requested": to the channel's producers (to its admins when it has no producer), when an
- * episode in Approval has a newly proposed slot. Returns the number of messages sent.
+ * episode in Approval has a newly proposed slot, or a board move (by `movedById`) took the episode
+ * into Approval with its proposed slot. Returns the number of messages sent.
  */
-export async function notifyApprovalRequested(deps: MailDeps, input: { slotId: string }): Promise<number> {
+export async function notifyApprovalRequested(deps: MailDeps, input: { slotId: string; movedById?: string }): Promise<number> {
   const f = await slotFacts(deps.sequelize, input.slotId);
   if (!f) return 0;
+  const mover = input.movedById
+    ? (await deps.sequelize.query<{ name: string }>('SELECT name FROM users WHERE id = :id', { replacements: { id: input.movedById }, type: QueryTypes.SELECT }))[0]?.name ?? 'Someone'
+    : null;
   let recipients = await membersWithRoles(deps.sequelize, f.channelId, ['producer']);
   if (recipients.length === 0) recipients = await membersWithRoles(deps.sequelize, f.channelId, ['admin']);
   const when = slotText(f.startsAt, f.zone, f.channelTimeZone);
@@ -130,6 +134,7 @@ export async function notifyApprovalRequested(deps: MailDeps, input: { slotId: s
     paragraphs: [
       `${f.proposedBy ?? 'Someone'} proposed ${when} for “${f.title}”.`,
       ...(f.proposalNote ? [`Their note: ${f.proposalNote}`] : []),
+      ...(mover ? [`${mover} moved the episode to Approval on the board.`] : []),
       `Approve or reject it in the approval queue (${new URL('/approvals', deps.publicUrl).toString()}), where the gear embargoes, due-back dates, footage and description warnings are listed beside it.`,
     ],
     action: { label: 'Open the episode', url: episodeUrl(deps.publicUrl, f.episodeId, 'schedule') },

@@ -36,13 +36,28 @@ export interface Actor {
 type CreateInput = { title: string; gearIds: string[]; hostId: string | null; editorId: string | null; targetPublishWeek: string | null; shootDate: string | null };
 type UpdateInput = Omit<UpdateEpisodeInput, 'targetPublishWeek'> & { targetPublishWeek?: string | null; gearIds?: string[] };
 
+/** A board move that changed an episode's stage, told to the after-move listener once it committed. */
+export interface EpisodeMoved {
+  episodeId: string;
+  channelId: string;
+  actorId: string;
+  from: Stage;
+  to: Stage;
+}
+
+/** Hears committed stage changes (other features hook in through app.ts); its failure never undoes the move. */
+export type AfterMoveListener = (moved: EpisodeMoved) => void | Promise<void>;
+
 const fieldError = (field: string, message: string) => new AppError('validation_failed', `Check ${field}: ${message}`, { fieldErrors: { [`body.${field}`]: [message] } });
 
 export class EpisodesService {
   /** Concurrent reads of one channel's board share a statement, never an older one (see FreshCoalescer). */
   private readonly boardReads = new FreshCoalescer<Buffer | null>();
 
-  constructor(private readonly sequelize: Sequelize) {}
+  constructor(
+    private readonly sequelize: Sequelize,
+    private readonly hooks: { afterMove?: AfterMoveListener } = {},
+  ) {}
 
   /**
    * The board of a channel as UTF-8 JSON bytes (one SQL statement; see boardJson). Reads with the
@@ -200,9 +215,10 @@ export class EpisodesService {
   /**
    * Moves a card to `toStage` at `toIndex` (a reorder when the stage is the same). The version must
    * be the one the mover saw (else 409); the stage rules decide (else 422 listing what is missing).
+   * A stage change is told to the after-move listener once committed; a refused move tells nothing.
    */
   async move(actor: Actor, episodeId: string, input: MoveEpisodeInput): Promise<MoveResult> {
-    return this.sequelize.transaction(async (transaction) => {
+    const { result, from } = await this.sequelize.transaction(async (transaction) => {
       await lockBoard(actor.channelId, transaction);
       const ep = await this.lockEpisode(actor.channelId, episodeId, input.version, transaction);
       if (ep.archivedAt) throw new AppError('conflict', `"${ep.title}" is archived: restore it before moving it`);
@@ -245,8 +261,16 @@ export class EpisodesService {
           transaction,
         );
       }
-      return { id: episodeId, stage: to, position: index, version };
+      return { result: { id: episodeId, stage: to, position: index, version }, from };
     });
+    if (result.stage !== from && this.hooks.afterMove) {
+      try {
+        await this.hooks.afterMove({ episodeId, channelId: actor.channelId, actorId: actor.userId, from, to: result.stage });
+      } catch (err) {
+        console.error(`[episodes] after-move listener failed for ${episodeId}:`, (err as Error).message);
+      }
+    }
+    return result;
   }
 
   /** Archives an episode: it leaves the board (its column closes the gap) and shows on the archive page. */

@@ -253,6 +253,24 @@ export async function slotById(slotId: string, transaction?: Transaction): Promi
   return rows[0] ? toSlotDto(rows[0]) : null;
 }
 
+/**
+ * The proposed slot an episode, still in Approval, took there with its latest move into Approval:
+ * null when its proposed slot came after that move (the proposal itself asked for approval) or
+ * there is none. Moves and proposals append their activity lines under the board lock, so the log's
+ * ids give their order; a slot without a proposal line (seeded data) counts as older than any move.
+ */
+export async function slotTakenIntoApproval(episodeId: string): Promise<string | null> {
+  const rows = await db().query<{ id: string }>(
+    `SELECT s.id FROM publish_slots s JOIN episodes e ON e.id = s.episode_id
+      WHERE s.episode_id = :episodeId AND s.status = 'proposed' AND e.stage = 'approval' AND e.archived_at IS NULL
+        AND COALESCE((SELECT max(a.id) FROM activities a WHERE a.episode_id = s.episode_id AND a.action = 'slot.proposed' AND a.subject_id = s.id::text), 0)
+          < (SELECT max(a.id) FROM activities a WHERE a.episode_id = s.episode_id AND a.action = 'episode.moved' AND a.to_value = 'approval')
+      LIMIT 1`,
+    { replacements: { episodeId }, type: QueryTypes.SELECT },
+  );
+  return rows[0]?.id ?? null;
+}
+
 /** The live slot of an episode: the one proposed or approved (at most one, by a unique index). */
 export function currentOf(slots: PublishSlotDto[]): PublishSlotDto | null {
   return slots.find((s) => s.status === 'proposed' || s.status === 'approved') ?? null;

@@ -28,6 +28,7 @@ import {
 import { AppError } from '../../errors.ts';
 import { recordActivity } from '../../lib/activity.ts';
 import { lockBoard } from '../episodes/episodes.repository.ts';
+import type { EpisodeMoved } from '../episodes/episodes.service.ts';
 import { notifyApprovalRequested, notifySlotDecided, type MailDeps } from '../../mail/notifications.ts';
 import { approvalBlockers } from './approval-rules.ts';
 import {
@@ -44,6 +45,7 @@ import {
   hasContent,
   slotById,
   slotsOfEpisodes,
+  slotTakenIntoApproval,
   type EpisodeHead,
 } from './publishing.repository.ts';
 
@@ -73,6 +75,18 @@ async function disclosureOf(h: EpisodeHead, transaction?: Transaction) {
   const input = descriptionInputFrom(context, partsOf(row));
   const need = disclosureRequired(input);
   return { required: need.required, reasons: need.reasons, present: resolveDisclosure(input) !== '' };
+}
+
+/**
+ * The board's after-move listener (app.ts wires it): when a move took an episode into Approval with a
+ * slot proposed before the move, its producers get the approval request. Runs after the move committed.
+ */
+export function approvalRequestOnEntry(mail: MailDeps): (moved: EpisodeMoved) => Promise<void> {
+  return async (moved) => {
+    if (moved.to !== 'approval' || moved.from === 'approval') return;
+    const slotId = await slotTakenIntoApproval(moved.episodeId);
+    if (slotId) await notifyApprovalRequested(mail, { slotId, movedById: moved.actorId });
+  };
 }
 
 /** Publish slots and their approval. */
@@ -168,6 +182,7 @@ export class SlotsService {
       const stageNow: Stage = backToApproval ? 'approval' : h.stage;
       return { slotId: slot.id, stageNow };
     });
+    // One approval request per slot put before the producers: here if proposed in Approval, else by the board move into Approval (approvalRequestOnEntry).
     if (result.stageNow === 'approval') await notifyApprovalRequested(this.mail, { slotId: result.slotId });
     return this.schedule(episodeId, role);
   }
