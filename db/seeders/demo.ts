@@ -1,6 +1,7 @@
 // The demo scenario: a fictional channel, its people, gear and episodes. Every brand, model,
 // person and figure here is invented for the demo. Idempotent: running it twice changes nothing.
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { formatLocalDateTime, zonedTimeToInstant } from '@midgray/shared';
 import { Activity, Channel, Episode, EpisodeGear, Gear, Membership, User } from '../src/index.ts';
 import { DEMO_CHANNEL_NAME, DEMO_PEOPLE } from '../src/demo/people.ts';
 import { demoTestPlans } from './demo-plans.ts';
@@ -24,6 +25,8 @@ export interface DemoContext {
 
 const day = 86_400_000;
 const isoDate = (d: Date) => d.toISOString().slice(0, 10);
+/** An instant `days` from `now` at a wall-clock time in `zone`, as embargoes are announced ("15:00 Berlin time"). */
+const wallClockIn = (now: Date, days: number, time: string, zone: string) => new Date(zonedTimeToInstant(`${formatLocalDateTime(new Date(+now + days * 86_400_000), zone).slice(0, 10)}T${time}`, zone));
 
 /** Monday of the week containing `d` (UTC), as YYYY-MM-DD. */
 function mondayOf(d: Date) {
@@ -36,12 +39,12 @@ const baseSteps: DemoStep[] = [
   async function gearList(ctx) {
     const { now, transaction, channelId } = ctx;
     const items = [
-      { key: 'k9', kind: 'body', make: 'Korvala', model: 'K9 Cine', serial: 'KV9-004417', source: 'loaner', sponsored: false, receivedOn: isoDate(new Date(+now - 6 * day)), dueBackOn: isoDate(new Date(+now + 2 * day)), embargoAt: new Date(+now + 9 * day + 13 * 3_600_000), embargoZone: 'Europe/Berlin', notes: 'Pre-production firmware 0.9. Return with both batteries.' },
+      { key: 'k9', kind: 'body', make: 'Korvala', model: 'K9 Cine', serial: 'KV9-004417', source: 'loaner', sponsored: false, receivedOn: isoDate(new Date(+now - 6 * day)), dueBackOn: isoDate(new Date(+now + 2 * day)), embargoAt: wallClockIn(now, 9, '15:00', 'Europe/Berlin'), embargoZone: 'Europe/Berlin', notes: 'Pre-production firmware 0.9. Return with both batteries.' },
       { key: 'k7', kind: 'body', make: 'Korvala', model: 'K7 Mark II', serial: 'KV7-118203', source: 'owned', sponsored: false, receivedOn: '2025-03-02', dueBackOn: null, embargoAt: null, embargoZone: null, notes: 'House reference body.' },
       { key: 'lens50', kind: 'lens', make: 'Brightwell', model: 'Prime 50 T1.5', serial: 'BW50-2231', source: 'rental', sponsored: false, receivedOn: isoDate(new Date(+now - 3 * day)), dueBackOn: isoDate(new Date(+now + 12 * day)), embargoAt: null, embargoZone: null, notes: 'Rental house order 5521.' },
       { key: 'zoom', kind: 'lens', make: 'Brightwell', model: 'Zoom 24-70 T2.9', serial: 'BWZ-0098', source: 'owned', sponsored: false, receivedOn: '2024-11-20', dueBackOn: null, embargoAt: null, embargoZone: null, notes: '' },
       { key: 'panel', kind: 'light', make: 'Lumetra', model: 'Panel 600 Bi-colour', serial: 'LM6-7781', source: 'purchased', sponsored: true, receivedOn: '2026-09-14', dueBackOn: null, embargoAt: null, embargoZone: null, notes: 'Sent by the maker as a sponsorship: disclose.' },
-      { key: 'rec', kind: 'recorder', make: 'Datavault', model: 'Field 7 Recorder', serial: 'DV7-3310', source: 'loaner', sponsored: false, receivedOn: isoDate(new Date(+now - 1 * day)), dueBackOn: isoDate(new Date(+now + 20 * day)), embargoAt: new Date(+now + 4 * day), embargoZone: 'America/Los_Angeles', notes: '' },
+      { key: 'rec', kind: 'recorder', make: 'Datavault', model: 'Field 7 Recorder', serial: 'DV7-3310', source: 'loaner', sponsored: false, receivedOn: isoDate(new Date(+now - 1 * day)), dueBackOn: isoDate(new Date(+now + 20 * day)), embargoAt: wallClockIn(now, 4, '06:00', 'America/Los_Angeles'), embargoZone: 'America/Los_Angeles', notes: '' },
     ] as const;
     for (const g of items) {
       const { key, ...row } = g;
