@@ -42,6 +42,8 @@ export default defineConfig({
       STORAGE_DIR: `.data/e2e-storage-${PORT}`,
       // Browser tests do not depend on the machine's free space (the API tests check the reserve).
       UPLOAD_DISK_RESERVE_BYTES: '0',
+      // The journeys read the "footage ready" mail right after verification (batching is tested in the API tests).
+      FOOTAGE_READY_BATCH_SECONDS: '0',
     },
   },
 });

@@ -146,7 +146,7 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): BuiltApp {
   registerEpisodeRoutes(routes, { episodes: new EpisodesService(sequelize, { afterMove: approvalRequestOnEntry(mail) }) });
   registerGearRoutes(routes, { gear: new GearService(sequelize) });
   registerPlanRoutes(routes, { plans: new PlansService(sequelize) });
-  registerPublishingRoutes(routes, { ...mail, jobs, footageEvents: footage.events });
+  const publishing = registerPublishingRoutes(routes, { ...mail, jobs, footageEvents: footage.events, footageReadyBatchMs: env.FOOTAGE_READY_BATCH_SECONDS * 1000 });
   if (env.FAKES) registerMailboxRoutes(routes, { mailboxDir: resolve(env.MAILBOX_DIR) });
   registerFootageRoutes(routes, { footage });
   registerReadoutJob(jobs, { sequelize, storageDir: uploads.store.root });
@@ -172,6 +172,7 @@ export function createApp(ctx: AppContext, opts: AppOptions = {}): BuiltApp {
     startWorkers: () => jobs.startWorkers(),
     footage,
     close: async () => {
+      await publishing.flush();
       if (!ctx.jobs) await jobs.stop();
       await uploads.close();
       await pool.end();

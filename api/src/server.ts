@@ -34,9 +34,10 @@ async function shutdown(signal: string) {
   console.log(`[api] ${signal}: closing`);
   server.close();
   server.closeAllConnections?.();
+  // The app first (it sends mail still waiting in a batch), then the fakes and the mailer it used.
+  await close();
   for (const c of closers) await c();
   mailer.close();
-  await close();
   await sequelize.close();
   process.exit(0);
 }

@@ -55,6 +55,8 @@ export async function startTestApp(opts: AppOptions & { env?: Record<string, str
     MAILBOX_DIR: mailboxDir,
     // Tests do not depend on the machine's free space; the reserve itself is tested with a given free space.
     UPLOAD_DISK_RESERVE_BYTES: '0',
+    // Mail each verified file at once, so tests need not wait out the batching window (tested on its own).
+    FOOTAGE_READY_BATCH_SECONDS: '0',
     STORAGE_DIR: join(mailboxDir, 'storage'),
     WEB_DIST: join(mailboxDir, 'no-web'),
     ...opts.env,

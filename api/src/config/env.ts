@@ -42,6 +42,8 @@ export const EnvSchema = z.object({
   UPLOAD_MAX_OPEN_BYTES_PER_USER: z.coerce.number().int().positive().default(4 * 1024 ** 4),
   /** Free space the footage folder keeps after every upload under way has arrived; uploads that would eat into it get 507. */
   UPLOAD_DISK_RESERVE_BYTES: z.coerce.number().int().min(0).default(2 * 1024 ** 3),
+  /** Footage of one episode verified within this many seconds goes to the editors in one "footage ready" mail (0: one mail per file). */
+  FOOTAGE_READY_BATCH_SECONDS: z.coerce.number().min(0).max(3600).default(60),
   /** How often expired uploads are swept (cron, every 15 minutes by default). */
   UPLOAD_CLEANUP_CRON: z.string().default('*/15 * * * *'),
   /** Upload locks: 'postgres' (advisory locks, safe with several API processes) or 'memory' (one process only). */

@@ -19,7 +19,8 @@ import {
 } from '@midgray/shared';
 import { registerGearDueBackJob, type JobRegistry } from '../../jobs/gear-due-back.ts';
 import type { Mailer } from '../../mail/mailer.ts';
-import { notifyFootageReady } from '../../mail/notifications.ts';
+import { notifyFootageReady, type ReadyFootage } from '../../mail/notifications.ts';
+import { Batcher } from '../../lib/batcher.ts';
 import { ANY_ROLE, byRecord, currentUser, membershipOf, type ChannelScope } from '../../middleware/auth.ts';
 import type { ApiRoutes } from '../../routing.ts';
 import { CalendarService } from './calendar.service.ts';
@@ -50,12 +51,14 @@ export interface FootageReadySource {
  */
 export function registerPublishingRoutes(
   routes: ApiRoutes,
-  deps: { sequelize: Sequelize; mailer: Mailer; publicUrl: string; jobs?: JobRegistry; footageEvents?: FootageReadySource },
-) {
+  deps: { sequelize: Sequelize; mailer: Mailer; publicUrl: string; jobs?: JobRegistry; footageEvents?: FootageReadySource; footageReadyBatchMs?: number },
+): { flush: () => Promise<void> } {
   const mail = { sequelize: deps.sequelize, mailer: deps.mailer, publicUrl: deps.publicUrl };
   if (deps.jobs) registerGearDueBackJob(deps.jobs, mail);
+  // Files of one episode verified within a minute of each other go to the editors in one mail, not one mail each.
+  const ready = new Batcher<ReadyFootage>(deps.footageReadyBatchMs ?? 60_000, (episodeId, footage) => notifyFootageReady(mail, { episodeId, footage }));
   deps.footageEvents?.onReady(async (e) => {
-    await notifyFootageReady(mail, { episodeId: e.episodeId, footage: [{ name: e.originalName, kind: FOOTAGE_KIND_WORDS[e.kind] ?? e.kind.replace(/_/g, ' ') }] });
+    await ready.add(e.episodeId, { name: e.originalName, kind: FOOTAGE_KIND_WORDS[e.kind] ?? e.kind.replace(/_/g, ' ') });
   });
   const descriptions = new DescriptionService(deps.sequelize);
   const slots = new SlotsService(deps.sequelize, mail);
@@ -140,4 +143,5 @@ export function registerPublishingRoutes(
     await calendar.disableFeed(currentUser(req).id);
     res.status(204).end();
   });
+  return { flush: () => ready.flush() };
 }
