@@ -10,7 +10,7 @@ import {
   parseResolution,
   rationalFps,
 } from './footage-spec.ts';
-import type { ProbeSummary } from './schemas/footage.ts';
+import { allFootageExtensions, kindForFile, type ProbeSummary } from './schemas/footage.ts';
 
 const uhd2398: ProbeSummary = {
   container: 'mov,mp4,m4a,3gp,3g2,mj2',
@@ -177,5 +177,24 @@ describe('compareProbeWithSpec', () => {
     const r = compareProbeWithSpec(still, sheet, 'frame_grab');
     expect(r.mismatches.map((m) => m.key)).toEqual(['resolution']);
     expect(r.skipped).toEqual([]);
+  });
+});
+
+describe('kindForFile', () => {
+  it('keeps the uploader’s choice when it accepts the file, else takes the first kind that does', () => {
+    expect(kindForFile('A001_C003.mov', 'graded_render')).toBe('graded_render');
+    expect(kindForFile('grab_iso800.png', 'camera_original')).toBe('frame_grab');
+    expect(kindForFile('PLATE.JPG', 'graded_render')).toBe('frame_grab');
+    // TIFF and DPX sequences may be camera originals or grabs: the choice stands.
+    expect(kindForFile('frame_0001.dpx', 'frame_grab')).toBe('frame_grab');
+    expect(kindForFile('frame_0001.dpx', 'camera_original')).toBe('camera_original');
+    expect(kindForFile('notes.txt', 'camera_original')).toBeNull();
+  });
+
+  it('lists every accepted extension once', () => {
+    const all = allFootageExtensions();
+    expect(new Set(all).size).toBe(all.length);
+    expect(all).toEqual(expect.arrayContaining(['.mp4', '.mov', '.mxf', '.png', '.jpg', '.tif', '.dpx']));
+    expect(all).not.toContain('.txt');
   });
 });

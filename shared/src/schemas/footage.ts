@@ -51,6 +51,23 @@ export const KIND_FORMATS: Record<FootageKind, readonly FileFormat[]> = {
   frame_grab: ['png', 'jpeg', 'tiff', 'dpx'],
 };
 
+/**
+ * The kind a new file gets: `preferred` (the uploader's choice for the batch) when that kind accepts
+ * the file's extension, else the first kind that does (a .png added as camera originals becomes a
+ * frame grab); null when no kind accepts it.
+ */
+export function kindForFile(name: string, preferred: FootageKind): FootageKind | null {
+  const ext = fileExtension(name);
+  const accepts = (k: FootageKind) => extensionsForKind(k).includes(ext);
+  if (accepts(preferred)) return preferred;
+  return FOOTAGE_KINDS.find(accepts) ?? null;
+}
+
+/** Every extension some kind accepts, each once, in kind order. */
+export function allFootageExtensions(): string[] {
+  return [...new Set(FOOTAGE_KINDS.flatMap((k) => extensionsForKind(k)))];
+}
+
 /** Returns the extensions (".mov", …) a kind accepts. */
 export function extensionsForKind(kind: FootageKind): string[] {
   return KIND_FORMATS[kind].flatMap((f) => FORMAT_EXTENSIONS[f]);

@@ -11,7 +11,7 @@ import Uppy, { type UppyFile } from '@uppy/core';
 import Dashboard from '@uppy/react/dashboard';
 import Tus from '@uppy/tus';
 import { useEffect, useRef, useState } from 'react';
-import { extensionsForKind, FOOTAGE_KIND_LABELS, FOOTAGE_KINDS, type FootageKind, type FootageStepOption } from '@midgray/shared';
+import { allFootageExtensions, extensionsForKind, FOOTAGE_KIND_LABELS, FOOTAGE_KINDS, kindForFile, type FootageKind, type FootageStepOption } from '@midgray/shared';
 import { SelectField } from '../../../components/ui/field.tsx';
 import { Panel } from '../../../components/ui/page.tsx';
 import { getCsrfToken } from '../../../lib/api-client.ts';
@@ -57,6 +57,11 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
   const [kind, setKind] = useState<FootageKind>('camera_original');
   const [stepId, setStepId] = useState('');
   const [uppy, setUppy] = useState<FootageUppy | null>(null);
+  // The batch choice as the event handlers read it (they are made once per episode).
+  const choice = useRef({ kind, stepId });
+  choice.current = { kind, stepId };
+  // Files whose kind or step someone set on the file itself: the batch choice no longer changes them.
+  const editedOnFile = useRef(new Set<string>());
   const [sums, setSums] = useState<Record<string, Checksum>>({});
   // The checksums as events change them (React state only mirrors this for display, so a late
   // event never reads a state that has not re-rendered yet).
@@ -66,7 +71,8 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
     const u: FootageUppy = new Uppy<FileMeta, Record<string, never>>({
       id: `footage-${episodeId}`,
       autoProceed: false,
-      restrictions: { maxFileSize: maxFileBytes, allowedFileTypes: extensionsForKind('camera_original') },
+      // Any kind's files are accepted; each new file takes the batch's kind when that kind accepts it (kindForFile).
+      restrictions: { maxFileSize: maxFileBytes, allowedFileTypes: allFootageExtensions() },
       meta: { episodeId, kind: 'camera_original', stepId: '', sha256: '' },
       // Refusals are shown in the dashboard (see upload-error below); log them as warnings, not errors.
       logger: { debug: () => undefined, warn: (...args: unknown[]) => console.warn(...args), error: (...args: unknown[]) => console.warn(...args) },
@@ -97,6 +103,7 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
         .catch((err: Error) => update(id, { error: `Could not send the checksum: ${err.message}` }));
     };
     u.on('file-added', (file: UppyFile<FileMeta, Record<string, never>>) => {
+      u.setFileMeta(file.id, { kind: kindForFile(file.name ?? '', choice.current.kind) ?? choice.current.kind, stepId: choice.current.stepId });
       live.current.set(file.id, { name: file.name ?? 'file', size: file.size ?? 0, bytes: 0 });
       show();
       if (!(file.data instanceof File)) return;
@@ -113,7 +120,11 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
         (err: Error) => update(file.id, { error: err.message }),
       );
     });
+    u.on('dashboard:file-edit-complete', (file) => {
+      if (file) editedOnFile.current.add(file.id);
+    });
     u.on('file-removed', (file) => {
+      editedOnFile.current.delete(file.id);
       hashes.get(file.id)?.();
       live.current.delete(file.id);
       show();
@@ -149,13 +160,37 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
     };
   }, [episodeId, maxFileBytes, qc]);
 
-  // The kind and step apply to files added from now on and to files not started yet.
+  // The batch's kind and step apply to files added from now on and to files not started yet,
+  // except files whose own kind or step was set on the file (its edit button in the dashboard).
   useEffect(() => {
     if (!uppy) return;
     uppy.setMeta({ kind, stepId });
-    uppy.setOptions({ restrictions: { maxFileSize: maxFileBytes, allowedFileTypes: extensionsForKind(kind) } });
-    for (const f of uppy.getFiles()) if (!f.progress.uploadStarted) uppy.setFileMeta(f.id, { kind, stepId });
-  }, [uppy, kind, stepId, maxFileBytes]);
+    for (const f of uppy.getFiles()) {
+      if (f.progress.uploadStarted || editedOnFile.current.has(f.id)) continue;
+      uppy.setFileMeta(f.id, { kind: kindForFile(f.name ?? '', kind) ?? kind, stepId });
+    }
+  }, [uppy, kind, stepId]);
+
+  // Per file, in the dashboard's edit card: what the file is and its test step.
+  const metaFields = [
+    {
+      id: 'kind',
+      name: 'What the file is',
+      render: ({ value, onChange, form }: { value: string; onChange: (v: string) => void; form: string }, h: (node: unknown, params: Record<string, unknown> | null, ...children: unknown[]) => unknown) =>
+        h('select', { id: 'uppy-Dashboard-FileCard-input-kind', form, value, class: 'uppy-u-reset uppy-c-textInput uppy-Dashboard-FileCard-input', onChange: (e: Event) => onChange((e.target as HTMLSelectElement).value) }, ...FOOTAGE_KINDS.map((k) => h('option', { value: k, key: k }, FOOTAGE_KIND_LABELS[k]))),
+    },
+    {
+      id: 'stepId',
+      name: 'Test step',
+      render: ({ value, onChange, form }: { value: string; onChange: (v: string) => void; form: string }, h: (node: unknown, params: Record<string, unknown> | null, ...children: unknown[]) => unknown) =>
+        h(
+          'select',
+          { id: 'uppy-Dashboard-FileCard-input-stepId', form, value, class: 'uppy-u-reset uppy-c-textInput uppy-Dashboard-FileCard-input', onChange: (e: Event) => onChange((e.target as HTMLSelectElement).value) },
+          h('option', { value: '', key: '' }, 'No particular step'),
+          ...steps.map((st) => h('option', { value: st.id, key: st.id }, `${st.testName} · ${st.label}`)),
+        ),
+    },
+  ];
 
   // With a single file the upload widget draws its file as a list item outside any list (a
   // role="list" is missing on that path of its own markup); give the container the role it lacks.
@@ -175,7 +210,7 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
   return (
     <Panel title="Upload footage">
       <div className="mb-3 grid gap-3 sm:grid-cols-2">
-        <SelectField label="What are these files?" value={kind} onChange={(e) => setKind(e.target.value as FootageKind)} hint={`Accepted: ${extensionsForKind(kind).join(' ')}`}>
+        <SelectField label="What are these files?" value={kind} onChange={(e) => setKind(e.target.value as FootageKind)} hint={`${extensionsForKind(kind).join(' ')}; a still image added here goes in as a frame grab. Change one file with its edit button.`}>
           {FOOTAGE_KINDS.map((k) => (
             <option key={k} value={k}>
               {FOOTAGE_KIND_LABELS[k]}
@@ -199,6 +234,7 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
             height={320}
             // Each file's own speed and time left are listed below; the widget's overall estimate would disagree with them.
             hideProgressDetails
+            metaFields={metaFields as never}
             proudlyDisplayPoweredByUppy={false}
             note={`Up to ${formatBytes(maxFileBytes)} per file. Interrupted? Add the same file again: it continues where it stopped.`}
           />
