@@ -1,4 +1,4 @@
-import { queryOptions, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { queryOptions, useMutation, useQuery } from '@tanstack/react-query';
 import type { Me } from '@midgray/shared';
 import { api } from '../../../lib/api-client.ts';
 
@@ -16,14 +16,13 @@ export const meQueryOptions = () => queryOptions({ queryKey: ['auth', 'me'], que
 /** The signed-in user (null when signed out). */
 export const useMe = () => useQuery(meQueryOptions());
 
-/** Signs out, then forgets every cached query. */
+/**
+ * Signs out, then loads the sign-in page afresh: the full page load forgets every cached query. (Clearing
+ * the cache first made the shell redirect on its own as well, and the second navigation cut off the next one.)
+ */
 export function useSignOut() {
-  const qc = useQueryClient();
   return useMutation({
     mutationFn: () => api<void>('POST', '/api/auth/logout'),
-    onSettled: () => {
-      qc.clear();
-      window.location.assign('/sign-in');
-    },
+    onSettled: () => window.location.assign('/sign-in'),
   });
 }
