@@ -1,6 +1,10 @@
 import { DEMO, expect, signInAs, test } from '../fixtures/app.ts';
+import { resetDemo } from '../fixtures/reset.ts';
 
 const EPISODE = 'Panel 600 on location: colour and flicker';
+
+// The demo's panel episode waits in Approval on a freshly seeded demo, whatever ran before.
+test.beforeAll(() => resetDemo());
 
 test('A producer approves a publish slot from the queue; the host sees the episode scheduled and the mail arrives', async ({ page }) => {
   await signInAs(page, DEMO.producer);

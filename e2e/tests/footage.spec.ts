@@ -138,6 +138,30 @@ test('A host sees a clear message in the dashboard when a file is refused', asyn
   await expect(page.getByRole('row', { name: /A009_C001\.mov/ })).toHaveCount(0);
 });
 
+test('A still added among camera originals goes in as a frame grab, and one file’s kind is changed on the file itself', async ({ page }, info) => {
+  test.slow();
+  const dir = info.outputPath('kinds');
+  mkdirSync(dir, { recursive: true });
+  const grab = join(dir, 'grab_iso800.png');
+  const clip = join(dir, 'B002_C001_graded.mp4');
+  execFileSync('ffmpeg', ['-v', 'error', '-y', '-f', 'lavfi', '-i', 'testsrc2=size=320x180', '-frames:v', '1', grab]);
+  execFileSync('ffmpeg', ['-v', 'error', '-y', '-f', 'lavfi', '-i', 'testsrc2=size=320x180:rate=25', '-t', '1', '-c:v', 'libx264', '-preset', 'ultrafast', '-pix_fmt', 'yuv420p', clip]);
+  await signInAs(page, DEMO.host);
+  const id = await episodeId(page, 'Field 7 recorder');
+  await page.goto(`/episodes/${id}?tab=footage`);
+  await page.getByLabel('What are these files?').selectOption('camera_original');
+  await page.locator('.uppy-Dashboard-input').first().setInputFiles([grab, clip]);
+  // The clip was a graded render all along: set it on the file.
+  await page.getByRole('button', { name: 'Edit file B002_C001_graded.mp4' }).click();
+  await page.getByLabel('What the file is').selectOption('graded_render');
+  await page.getByRole('button', { name: 'Save changes' }).click();
+  await page.getByRole('button', { name: /^Upload 2 files/ }).click();
+  const table = page.getByRole('region', { name: 'Footage' }).or(page.getByRole('table')).first();
+  await expect(page.getByRole('row', { name: /grab_iso800\.png/ })).toContainText('Frame grab', { timeout: 30_000 });
+  await expect(page.getByRole('row', { name: /B002_C001_graded\.mp4/ })).toContainText('Graded render', { timeout: 30_000 });
+  await expect(table).toBeVisible();
+});
+
 test('A host reloads the page in the middle of an upload, adds the file again and it continues where it stopped', async ({ page }, info) => {
   test.slow();
   const dir = info.outputPath('clips');
