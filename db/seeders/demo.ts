@@ -2,7 +2,7 @@
 // person and figure here is invented for the demo. Idempotent: running it twice changes nothing.
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import { formatLocalDateTime, zonedTimeToInstant } from '@midgray/shared';
-import { Activity, Channel, Episode, EpisodeGear, Gear, Membership, User } from '../src/index.ts';
+import { Activity, Channel, Episode, EpisodeGear, Gear, lockUntilCommit, Membership, User } from '../src/index.ts';
 import { DEMO_CHANNEL_NAME, DEMO_PEOPLE } from '../src/demo/people.ts';
 import { demoTestPlans } from './demo-plans.ts';
 import { demoPublishing } from './demo-publishing.ts';
@@ -109,7 +109,7 @@ DEMO_STEPS.push(demoFootage);
 export async function seedDemo(sequelize: Sequelize, now = new Date()): Promise<boolean> {
   const admin = DEMO_PEOPLE.find((p) => p.role === 'admin')!;
   return sequelize.transaction(async (transaction) => {
-    await sequelize.query(`SELECT pg_advisory_xact_lock(hashtext('midgray.demo-seed'))`, { type: QueryTypes.SELECT, transaction });
+    await lockUntilCommit(transaction, 'midgray.seed', 'demo');
     const existing = await sequelize.query<{ id: string }>(`SELECT id FROM users WHERE provider = 'github' AND provider_id = :pid LIMIT 1`, {
       replacements: { pid: admin.providerId },
       type: QueryTypes.SELECT,

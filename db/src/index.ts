@@ -19,6 +19,7 @@ export { Footage, UploadRecord, type FootageKind, type FootageStatus } from './m
 export { Readout, type ReadoutKindValue, type ReadoutStatus } from './models/readout.ts';
 export type { StoredChapter, StoredGearLink } from './models/description.ts';
 export { createMigrator, migrateUp, type MigrationFn } from './migrator.ts';
+export { lockUntilCommit } from './locks.ts';
 
 /** Registers every model and association on `sequelize` (idempotent per instance). */
 export function initModels(sequelize: Sequelize) {

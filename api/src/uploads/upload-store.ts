@@ -12,6 +12,7 @@ import { pipeline } from 'node:stream/promises';
 import { FileStore } from '@tus/file-store';
 import { ERRORS, Upload, type KvStore } from '@tus/utils';
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { lockUntilCommit } from '@midgray/db';
 import { FILE_FORMAT_LABELS, FOOTAGE_KIND_LABELS, FORMAT_EXTENSIONS, formatForFileName, KIND_FORMATS, type FileFormat, type FootageKind } from '@midgray/shared';
 import { SNIFF_BYTES, sniffFormat } from './sniff.ts';
 
@@ -99,7 +100,7 @@ export class UploadRecords implements KvStore<Upload> {
     }
     const length = upload.size ?? 0;
     await this.sequelize.transaction(async (transaction) => {
-      await this.sequelize.query('SELECT pg_advisory_xact_lock(hashtext(:key))', { replacements: { key: `uploads:${creation.ownerId}` }, transaction });
+      await lockUntilCommit(transaction, 'midgray.uploads', creation.ownerId);
       const [open] = await this.sequelize.query<{ n: string; bytes: string }>(
         `SELECT count(*) AS n, coalesce(sum(length), 0) AS bytes FROM uploads
           WHERE owner_id = :owner AND completed_at IS NULL AND expires_at > now()`,

@@ -1,5 +1,5 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
-import { Channel, Invitation, Membership, User } from '@midgray/db';
+import { Channel, Invitation, lockUntilCommit, Membership, User } from '@midgray/db';
 import { ChannelSettingsSchema, type Channel as ChannelDto, type CreateChannelInput, type Invitation as InvitationDto, type Member, type Role, type UpdateChannelInput } from '@midgray/shared';
 import { AppError } from '../../errors.ts';
 import { recordActivity } from '../../lib/activity.ts';
@@ -93,7 +93,7 @@ export class ChannelsService {
    * then checks, inside that order, that the actor is still an admin and the member exists.
    */
   private async lockMembers(channelId: string, actorId: string, memberId: string, transaction: any) {
-    await this.sequelize.query(`SELECT pg_advisory_xact_lock(hashtext('midgray.members'), hashtext(:channelId))`, { replacements: { channelId }, type: QueryTypes.SELECT, transaction });
+    await lockUntilCommit(transaction, 'midgray.members', channelId);
     const actor = await Membership.findOne({ where: { channelId, userId: actorId }, transaction });
     if (!actor) throw new AppError('not_found', 'Channel not found');
     if (actor.role !== 'admin') throw new AppError('forbidden', `Your role (${actor.role}) cannot do this; it needs admin`);

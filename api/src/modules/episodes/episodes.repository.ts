@@ -4,6 +4,7 @@
  * card. Facts owned by later features are read only when their tables exist (optional-tables.ts).
  */
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { lockUntilCommit } from '@midgray/db';
 import { STAGES, type ActivityEntry, type ArchivedEpisode, type BoardQuery, type BoardSlot, type Stage, type StageFacts } from '@midgray/shared';
 import { optionalTables, type OptionalTables } from './optional-tables.ts';
 
@@ -235,11 +236,7 @@ export async function stageFacts(episodeId: string, transaction: Transaction, ta
  * transaction ends, so concurrent moves see each other's positions and columns stay 0…n−1.
  */
 export async function lockBoard(channelId: string, transaction: Transaction): Promise<void> {
-  await dbOf(transaction).query(`SELECT pg_advisory_xact_lock(hashtext('midgray.board'), hashtext(:channelId))`, {
-    replacements: { channelId },
-    type: QueryTypes.SELECT,
-    transaction,
-  });
+  await lockUntilCommit(transaction, 'midgray.board', channelId);
 }
 
 /** Ids of the episodes (not archived) in `stages` of a channel, per stage, in board order. */

@@ -35,6 +35,19 @@ interface Checksum {
   sent?: boolean;
 }
 
+type MetaFieldProps = { value: string; onChange: (v: string) => void; form: string };
+type Hyperscript = (node: unknown, params: Record<string, unknown> | null, ...children: unknown[]) => unknown;
+
+/** A select for one field of the upload widget's per-file edit card (its label points at this id). */
+const metaSelect =
+  (field: string, options: [value: string, label: string][]) =>
+  ({ value, onChange, form }: MetaFieldProps, h: Hyperscript) =>
+    h(
+      'select',
+      { id: `uppy-Dashboard-FileCard-input-${field}`, form, value, class: 'uppy-c-textInput uppy-Dashboard-FileCard-input', onChange: (e: Event) => onChange((e.target as HTMLSelectElement).value) },
+      ...options.map(([v, label]) => h('option', { value: v, key: v }, label)),
+    );
+
 /** Reads the person-facing message from a tus error: the API's JSON message or the server's text. */
 export function uploadErrorMessage(error: unknown): string {
   const res = (error as { originalResponse?: { getBody?: () => string; getStatus?: () => number } })?.originalResponse;
@@ -172,24 +185,10 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
   }, [uppy, kind, stepId]);
 
   // Per file, in the dashboard's edit card: what the file is and its test step.
+  const stepChoices: [string, string][] = [['', 'No particular step'], ...steps.map((st): [string, string] => [st.id, `${st.testName} · ${st.label}`])];
   const metaFields = [
-    {
-      id: 'kind',
-      name: 'What the file is',
-      render: ({ value, onChange, form }: { value: string; onChange: (v: string) => void; form: string }, h: (node: unknown, params: Record<string, unknown> | null, ...children: unknown[]) => unknown) =>
-        h('select', { id: 'uppy-Dashboard-FileCard-input-kind', form, value, class: 'uppy-u-reset uppy-c-textInput uppy-Dashboard-FileCard-input', onChange: (e: Event) => onChange((e.target as HTMLSelectElement).value) }, ...FOOTAGE_KINDS.map((k) => h('option', { value: k, key: k }, FOOTAGE_KIND_LABELS[k]))),
-    },
-    {
-      id: 'stepId',
-      name: 'Test step',
-      render: ({ value, onChange, form }: { value: string; onChange: (v: string) => void; form: string }, h: (node: unknown, params: Record<string, unknown> | null, ...children: unknown[]) => unknown) =>
-        h(
-          'select',
-          { id: 'uppy-Dashboard-FileCard-input-stepId', form, value, class: 'uppy-u-reset uppy-c-textInput uppy-Dashboard-FileCard-input', onChange: (e: Event) => onChange((e.target as HTMLSelectElement).value) },
-          h('option', { value: '', key: '' }, 'No particular step'),
-          ...steps.map((st) => h('option', { value: st.id, key: st.id }, `${st.testName} · ${st.label}`)),
-        ),
-    },
+    { id: 'kind', name: 'What the file is', render: metaSelect('kind', FOOTAGE_KINDS.map((k) => [k, FOOTAGE_KIND_LABELS[k]])) },
+    { id: 'stepId', name: 'Test step', render: metaSelect('stepId', stepChoices) },
   ];
 
   // With a single file the upload widget draws its file as a list item outside any list (a
@@ -218,10 +217,9 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
           ))}
         </SelectField>
         <SelectField label="Test step (optional)" value={stepId} onChange={(e) => setStepId(e.target.value)} hint={steps.length ? 'The probe compares the file with this test’s spec sheet' : 'This episode has no test steps yet'}>
-          <option value="">No particular step</option>
-          {steps.map((s) => (
-            <option key={s.id} value={s.id}>
-              {s.testName} · {s.label}
+          {stepChoices.map(([value, label]) => (
+            <option key={value} value={value}>
+              {label}
             </option>
           ))}
         </SelectField>
@@ -231,7 +229,7 @@ export function UploadPanel({ episodeId, steps, maxFileBytes }: { episodeId: str
           <Dashboard
             uppy={uppy}
             width="100%"
-            height={320}
+            height={400}
             // Each file's own speed and time left are listed below; the widget's overall estimate would disagree with them.
             hideProgressDetails
             metaFields={metaFields as never}
