@@ -76,7 +76,7 @@ describe('circuitLoads', () => {
 });
 
 describe('lightingLine', () => {
-  it('writes each fixture with count, watts and circuit, and the total (SI: 1 kW = 1000 W)', () => {
+  it('writes each fixture with count, watts and circuit, and the total (SI Brochure, BIPM: 1 kW = 1000 W)', () => {
     expect(lightingLine([{ name: 'Fresnel', watts: 650, quantity: 2, circuit: 'A' }, { name: 'LED panel', watts: 200, circuit: 'B' }])).toBe('2 × Fresnel 650 W (circuit A); LED panel 200 W (circuit B) · 1.5 kW in all');
     expect(lightingLine([{ name: 'Tube', watts: 72.5, circuit: null }])).toBe('Tube 72.5 W (no circuit yet) · 72.5 W in all');
     expect(lightingLine([])).toBe('');

@@ -40,7 +40,9 @@ describe('upload speed, smoothed', () => {
   });
 
   it('weighs samples of any length by time, like a first-order low-pass filter', () => {
-    // A step from 10 to 20 MB/s: after one time constant the estimate has covered 1 − 1/e (63.2 %) of the step.
+    // A step from 10 to 20 MB/s: after one time constant the estimate has covered 1 − 1/e (63.2 %) of the step
+    // (step response of a first-order system, y(t) = 1 − e^(−t/τ); IEC 60050-351, "time constant").
+    // The 3 s constant itself is a choice of ours (`common practice` for transfer meters).
     const before = feed(startRate(0, 0), 5, 10 * MB, 1000);
     const after = feed(before, RATE_TIME_CONSTANT_SECONDS, 20 * MB, 1000);
     expect(after.bytesPerSecond! / MB).toBeCloseTo(20 - 10 * Math.exp(-1), 6);
@@ -92,6 +94,7 @@ describe('upload speed, smoothed', () => {
 });
 
 describe('speed and time left on screen', () => {
+  // Decimal prefixes k = 10³, M = 10⁶, G = 10⁹ (SI Brochure, 9th ed., BIPM; IEC 80000-13 keeps Ki/Mi for powers of 1024).
   it('writes speeds with SI prefixes (powers of 1000), one decimal under 100', () => {
     expect(formatSpeed(38_200_000)).toBe('38.2 MB/s');
     expect(formatSpeed(312_000)).toBe('312 kB/s');
@@ -102,6 +105,7 @@ describe('speed and time left on screen', () => {
     expect(formatSpeed(1.25e9)).toBe('1.3 GB/s');
   });
 
+  // The rounding steps are our own presentation choice (no standard): whole seconds, then 5 s, 10 s, minutes.
   it('writes the time left in words, rounder the longer it is', () => {
     expect(formatTimeLeft(0.2)).toBe('about 1 s left');
     expect(formatTimeLeft(7)).toBe('about 7 s left');
