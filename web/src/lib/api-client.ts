@@ -13,14 +13,24 @@ export class ApiError extends Error {
 }
 
 let csrfToken: string | null = null;
+let csrfFetch: Promise<string> | null = null;
 
-/** Returns the session's CSRF token, fetching it once per page load (and again after a 403). */
-export async function getCsrfToken(refresh = false): Promise<string> {
-  if (csrfToken && !refresh) return csrfToken;
-  const res = await fetch('/api/auth/csrf', { credentials: 'same-origin' });
-  const body = (await res.json()) as { token: string };
-  csrfToken = body.token;
-  return csrfToken;
+/**
+ * Returns the session's CSRF token, fetching it once per page load (and again after a 403).
+ * Callers that ask at the same moment (several uploads starting at once) share one fetch: two
+ * fetches would make two tokens, and the session would keep only the one saved last.
+ */
+export function getCsrfToken(refresh = false): Promise<string> {
+  if (csrfToken && !refresh) return Promise.resolve(csrfToken);
+  if (csrfFetch && !refresh) return csrfFetch;
+  const pending = fetch('/api/auth/csrf', { credentials: 'same-origin' })
+    .then((res) => res.json() as Promise<{ token: string }>)
+    .then((body) => (csrfToken = body.token))
+    .finally(() => {
+      if (csrfFetch === pending) csrfFetch = null;
+    });
+  csrfFetch = pending;
+  return pending;
 }
 
 type Method = 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
